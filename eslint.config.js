@@ -1,0 +1,47 @@
+// Lint rules: typescript-eslint's recommended set plus the layer rule of ARCHITECTURE.md
+// (each layer imports only the layers below it).
+import js from '@eslint/js';
+import tseslint from 'typescript-eslint';
+
+/** Which folders under src/ each layer must not import from. */
+const forbidden = {
+  quantum: ['expr', 'model', 'engine', 'session', 'tui', 'cli'],
+  expr: ['quantum', 'model', 'engine', 'session', 'tui', 'cli'],
+  model: ['engine', 'session', 'tui', 'cli'],
+  engine: ['session', 'tui', 'cli'],
+  session: ['tui', 'cli'],
+  tui: ['cli'],
+};
+
+const layerRules = Object.entries(forbidden).map(([layer, banned]) => ({
+  files: [`src/${layer}/**/*.ts`, `src/${layer}/**/*.tsx`],
+  rules: {
+    'no-restricted-imports': [
+      'error',
+      {
+        patterns: banned.map((b) => ({
+          group: [`../${b}/*`, `../../${b}/*`, `../${b}`, `../../${b}`],
+          message: `${layer}/ must not import ${b}/ (ARCHITECTURE.md: imports only go downwards).`,
+        })),
+      },
+    ],
+  },
+}));
+
+export default tseslint.config(
+  { ignores: ['dist/**', 'node_modules/**', 'coverage/**'] },
+  js.configs.recommended,
+  ...tseslint.configs.recommended,
+  {
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      'no-eval': 'error',
+      'no-new-func': 'error',
+    },
+  },
+  {
+    files: ['src/tui/**/*.tsx', 'src/tui/**/*.ts'],
+    rules: {},
+  },
+  ...layerRules,
+);

@@ -1,0 +1,27 @@
+/** Typed tables of commands and options: they drive commander, `--help` and the README. */
+import type { CliIo } from './io.js';
+
+export interface OptionSpec {
+  /** Commander flag syntax, e.g. `--seed <S>`. */
+  readonly flags: string;
+  readonly description: string;
+  /** The flag may be given several times; values collect into an array. */
+  readonly repeatable?: boolean;
+}
+
+export interface CommandContext {
+  readonly io: CliIo;
+}
+
+export interface CommandSpec {
+  readonly name: string;
+  /** Commander argument syntax, e.g. `<NET.yaml>` or `[NAME]`. */
+  readonly args: string;
+  readonly summary: string;
+  readonly options: readonly OptionSpec[];
+  /** Runs the command and returns the exit code (FORMAT.md §5). */
+  run(ctx: CommandContext, args: readonly string[], opts: Readonly<Record<string, unknown>>): Promise<number>;
+}
+
+/** Exit codes fixed by FORMAT.md §5. */
+export const EXIT = { ok: 0, problems: 1, input: 2, internal: 3 } as const;

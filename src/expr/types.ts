@@ -1,0 +1,47 @@
+/** Public types of the expression language (FORMAT.md §1 "Expressions"). */
+
+/** A value an expression can produce or read. Records are plain frozen objects. */
+export type Value = number | string | boolean | null | readonly Value[] | ValueRecord;
+export interface ValueRecord {
+  readonly [key: string]: Value;
+}
+
+/** Syntax tree node; `start`/`end` are 0-based offsets into the source text. */
+export type ExprNode =
+  | { readonly type: 'literal'; readonly value: number | string | boolean | null; readonly start: number; readonly end: number }
+  | { readonly type: 'name'; readonly name: string; readonly start: number; readonly end: number }
+  | { readonly type: 'member'; readonly object: ExprNode; readonly property: string; readonly start: number; readonly end: number }
+  | { readonly type: 'index'; readonly object: ExprNode; readonly index: ExprNode; readonly start: number; readonly end: number }
+  | { readonly type: 'unary'; readonly op: '-' | '+' | '!'; readonly argument: ExprNode; readonly start: number; readonly end: number }
+  | {
+      readonly type: 'binary';
+      readonly op: '+' | '-' | '*' | '/' | '%' | '<' | '<=' | '>' | '>=' | '==' | '!=' | '&&' | '||';
+      readonly left: ExprNode;
+      readonly right: ExprNode;
+      readonly start: number;
+      readonly end: number;
+    }
+  | { readonly type: 'conditional'; readonly test: ExprNode; readonly consequent: ExprNode; readonly alternate: ExprNode; readonly start: number; readonly end: number }
+  | { readonly type: 'call'; readonly callee: string; readonly args: readonly ExprNode[]; readonly start: number; readonly end: number };
+
+/** A parsed expression, ready to evaluate many times. */
+export interface Compiled {
+  /** The source text as given. */
+  readonly source: string;
+  readonly ast: ExprNode;
+  /** Free names read by the expression (not function names), in first-use order, without duplicates. */
+  readonly names: readonly string[];
+  /** Function names called, in first-use order, without duplicates. */
+  readonly calls: readonly string[];
+}
+
+/** A function callable from expressions. Throw `ExprEvalError`-style messages as plain Error; the evaluator adds the position. */
+export type ExprFunction = (args: readonly Value[]) => Value;
+
+/** What an evaluation can see: names and a whitelist of functions. */
+export interface Scope {
+  /** Value of a name, or undefined when the name is not bound. */
+  lookup(name: string): Value | undefined;
+  /** Functions callable by name; only own properties are consulted. */
+  readonly functions: Readonly<Record<string, ExprFunction>>;
+}

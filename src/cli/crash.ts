@@ -5,15 +5,21 @@ import type { CliIo } from './io.js';
 import { EXIT } from './spec.js';
 
 /** A hook the running command sets so a crash can save a replay of the session so far. */
-let saveReplay: (() => string | undefined) | undefined;
+let saveReplay: ((why: string) => string | undefined) | undefined;
 
-/** Registers (or clears) the function that writes an automatic replay on a crash. */
-export function onCrashSaveReplay(fn: (() => string | undefined) | undefined): void {
+/** Registers (or clears) the function that writes an automatic replay on a crash; it returns the path. */
+export function onCrashSaveReplay(fn: ((why: string) => string | undefined) | undefined): void {
   saveReplay = fn;
 }
 
-function crashDir(io: CliIo): string {
+/** Where crash reports and automatic replays go: $BELLSTEP_CRASH_DIR or the system temp folder. */
+export function crashDir(io: CliIo): string {
   return io.env.BELLSTEP_CRASH_DIR ?? join(tmpdir(), 'bellstep-crash');
+}
+
+/** A fresh path for an automatic replay. */
+export function crashReplayPath(io: CliIo): string {
+  return join(crashDir(io), `auto-${process.pid}-${Date.now()}.replay.json`);
 }
 
 export function reportInternalError(io: CliIo, err: unknown, argv: readonly string[]): number {
@@ -23,7 +29,7 @@ export function reportInternalError(io: CliIo, err: unknown, argv: readonly stri
   const detail = err instanceof Error ? `${err.name}: ${err.message}\n${err.stack ?? ''}` : String(err);
   let replayPath: string | undefined;
   try {
-    replayPath = saveReplay?.();
+    replayPath = saveReplay?.(err instanceof Error ? err.message : String(err));
   } catch {
     replayPath = undefined;
   }

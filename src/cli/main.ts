@@ -5,6 +5,8 @@
  */
 import { Command, CommanderError, Option } from 'commander';
 import { InputError, InputErrors } from '../model/errors.js';
+import { ProgramError } from '../engine/index.js';
+import { BreakpointError } from '../session/breakpoints.js';
 import type { CliIo } from './io.js';
 import { EXIT, type CommandSpec } from './spec.js';
 import { COMMANDS } from './commands/index.js';
@@ -58,8 +60,12 @@ export async function main(argv: readonly string[], io: CliIo, commands: readonl
       // commander already printed its message
       return EXIT.input;
     }
-    if (err instanceof InputError || err instanceof InputErrors) {
+    if (err instanceof InputError || err instanceof InputErrors || err instanceof ProgramError) {
       io.stderr(`bellstep: ${err.format()}\n`);
+      return EXIT.input;
+    }
+    if (err instanceof BreakpointError) {
+      io.stderr(`bellstep: ${err.message}\n  fix: make the breakpoint evaluable at every event, e.g. guard it with a check on delivered() or pairs()\n`);
       return EXIT.input;
     }
     return reportInternalError(io, err, argv);

@@ -1,4 +1,6 @@
 /** Every CLI command, in the order `--help` lists them. */
 import type { CommandSpec } from '../spec.js';
+import { runCommand } from './run.js';
+import { replayCommand } from './replay.js';
 
-export const COMMANDS: CommandSpec[] = [];
+export const COMMANDS: CommandSpec[] = [runCommand, replayCommand];

@@ -1,0 +1,99 @@
+/** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
+import { Engine } from '../../engine/index.js';
+import { formatDuration } from '../../model/units.js';
+import { parseBreakpoint } from '../../session/breakpoints.js';
+import { describeExpectations, parseExpectation, runHeadless } from '../../session/run.js';
+import type { RunSummary } from '../../session/summary.js';
+import { Recorder } from '../../session/replay.js';
+import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
+import { loadFiles, many, parseCount, parseDurationFlag, parseSeed } from '../inputs.js';
+import { EXIT, type CommandSpec } from '../spec.js';
+
+function textReport(s: RunSummary): string {
+  const lines: string[] = [];
+  lines.push(`stopped: ${s.stop.reason} — ${s.stop.detail}`);
+  lines.push(`events: ${s.events}   simulated time: ${formatDuration(s.time_ns)}   seed: ${s.seed}`);
+  const gen = Object.entries(s.generated).map(([k, v]) => `${k} ${v}`).join(', ');
+  lines.push(`pairs generated: ${gen || 'none'}`);
+  lines.push(`messages: ${s.messages.sent} sent, ${s.messages.delivered} arrived, ${s.messages.dropped} lost`);
+  if (s.delivered.length) {
+    const fs = s.delivered.map((d) => d.fidelity);
+    const mean = fs.reduce((a, b) => a + b, 0) / fs.length;
+    lines.push(`delivered: ${s.delivered.length} pairs, fidelity mean ${mean.toFixed(4)}, min ${Math.min(...fs).toFixed(4)}`);
+  } else lines.push('delivered: none');
+  for (const [node, rules] of Object.entries(s.fired)) {
+    lines.push(`  ${node}: ${Object.entries(rules).map(([r, n]) => `${r} ×${n}`).join(', ')}`);
+  }
+  if (s.stall) {
+    lines.push('', 'stalled; waiting rules:');
+    for (const [node, entries] of Object.entries(s.stall)) {
+      for (const e of entries) lines.push(`  ${node}.${e.rule}: ${e.reason}`);
+    }
+  }
+  if (s.expectations.length) lines.push('', 'expectations:', ...describeExpectations(s.expectations).map((l) => `  ${l}`));
+  return lines.join('\n') + '\n';
+}
+
+export const runCommand: CommandSpec = {
+  name: 'run',
+  args: '<NET.yaml>',
+  summary: 'run a program set headless and print a summary (for CI and scripts)',
+  options: [
+    { flags: '--noise <N.yaml>', description: 'noise model (default: ideal)' },
+    { flags: '--seed <S>', description: "seed (overrides the noise model's)" },
+    { flags: '--until <DUR>', description: 'stop before the first event after this simulated time, e.g. 60ms' },
+    { flags: '--events <N>', description: 'stop after this many events (default 1000000 when --until is not given)' },
+    { flags: '--break <EXPR>', description: 'stop when this breakpoint hits (repeatable)', repeatable: true },
+    { flags: '--expect <EXPR>', description: 'check this expression at the end; exit 1 if false (repeatable)', repeatable: true },
+    { flags: '--record <R.json>', description: 'write a replay file of the run' },
+    { flags: '--json', description: 'print the run summary as JSON (FORMAT.md §6)' },
+  ],
+  async run({ io }, [netPath], opts) {
+    const seedFlag = parseSeed(opts.seed);
+    const untilNs = parseDurationFlag(opts.until, '--until');
+    const maxEvents = parseCount(opts.events, '--events');
+    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
+    const engine = new Engine(programSet, noise);
+    const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
+    const expectations = many(opts.expect).map(parseExpectation);
+    const seed = noise.seed;
+    const recorder = opts.record ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
+    if (recorder) {
+      onCrashSaveReplay((why) => {
+        const path = crashReplayPath(io);
+        io.writeFile(path, recorder.partial(why));
+        return path;
+      });
+    }
+
+    const started = Date.now();
+    let lastProgress = started;
+    const progress = (events: number, t: number) => {
+      const now = Date.now();
+      if (now - lastProgress < 1000) return;
+      lastProgress = now;
+      const line = `… ${events} events, simulated ${formatDuration(t)}`;
+      if (io.stdoutIsTTY) io.stdout(`\r${line}`);
+      else io.stderr(`${line}\n`);
+    };
+    const result = runHeadless(engine, {
+      seed,
+      untilNs,
+      maxEvents,
+      breakpoints,
+      expectations,
+      onEvent: recorder ? (ev, w) => recorder.add(ev, w) : undefined,
+      onBatch: (w) => progress(w.events, w.time),
+    });
+    if (io.stdoutIsTTY && lastProgress !== started) io.stdout('\r\x1b[K');
+    onCrashSaveReplay(undefined);
+    if (recorder) {
+      io.writeFile(String(opts.record), recorder.finish(result.stop));
+      io.stderr(`replay written to ${String(opts.record)}\n`);
+    }
+    const s = result.summary;
+    io.stdout(opts.json ? `${JSON.stringify(s, null, 2)}\n` : textReport(s));
+    const failed = s.expectations.some((e) => !e.ok);
+    return s.stop.reason === 'stall' || failed ? EXIT.problems : EXIT.ok;
+  },
+};

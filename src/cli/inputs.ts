@@ -1,0 +1,66 @@
+/** Reading the input files and parsing the flags that several commands share. */
+import { InputError } from '../model/errors.js';
+import { loadInputs } from '../model/index.js';
+import type { NoiseModel, ProgramSet } from '../model/types.js';
+import { parseDuration } from '../model/units.js';
+import type { CliIo } from './io.js';
+
+/** Reads a file, turning a missing or unreadable file into an input error that names it. */
+export function readInput(io: CliIo, path: string, what: string): string {
+  try {
+    return io.readFile(path);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
+    throw new InputError({ code: 'file', file: path, message: `cannot read the ${what}: ${why}`, fix: `check the path of the ${what}` });
+  }
+}
+
+/** Parses `--seed`: a non-negative integer. */
+export function parseSeed(v: unknown): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  if (!/^[0-9]+$/.test(s) || !Number.isSafeInteger(Number(s))) {
+    throw new InputError({ code: 'usage', field: '--seed', message: `expected a non-negative integer, got "${s}"`, fix: 'write e.g. --seed 7' });
+  }
+  return Number(s);
+}
+
+/** Parses a duration flag such as `--until 60ms`. */
+export function parseDurationFlag(v: unknown, flag: string): number | undefined {
+  if (v === undefined) return undefined;
+  try {
+    return parseDuration(String(v));
+  } catch (e) {
+    if (e instanceof InputError) throw new InputError({ code: 'usage', field: flag, message: e.message, fix: e.fix ?? `write e.g. ${flag} 60ms` });
+    throw e;
+  }
+}
+
+/** Parses a count flag such as `--events 5000`. */
+export function parseCount(v: unknown, flag: string): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  if (!/^[0-9]+$/.test(s) || Number(s) < 1 || !Number.isSafeInteger(Number(s))) {
+    throw new InputError({ code: 'usage', field: flag, message: `expected a positive integer, got "${s}"`, fix: `write e.g. ${flag} 1000` });
+  }
+  return Number(s);
+}
+
+export interface LoadedInputs {
+  readonly programSet: ProgramSet;
+  readonly noise: NoiseModel;
+}
+
+/** Reads and validates the program set and the optional noise model; `--seed` overrides the file's seed. */
+export function loadFiles(io: CliIo, netPath: string, noisePath: string | undefined, seed: number | undefined): LoadedInputs {
+  const netText = readInput(io, netPath, 'program set');
+  const noiseText = noisePath === undefined ? undefined : readInput(io, noisePath, 'noise model');
+  return loadInputs({ netFile: netPath, netText, noiseFile: noisePath, noiseText, seed });
+}
+
+/** Collects a repeatable flag's values. */
+export function many(v: unknown): string[] {
+  if (v === undefined) return [];
+  return Array.isArray(v) ? v.map(String) : [String(v)];
+}

@@ -1,0 +1,212 @@
+/**
+ * Running a rule body: the steps of FORMAT.md §1, atomically, at the node's local time,
+ * which advances with each operation's duration (sends leave when their step runs).
+ */
+import { formatValue } from '../expr/index.js';
+import type { Value } from '../expr/types.js';
+import type { Expr, Rule, Step } from '../model/types.js';
+import { MAX_CLUSTER_QUBITS, ClusterTooLargeError } from '../quantum/index.js';
+import { ProgramError } from './errors.js';
+import { shortPairId } from './ids.js';
+import { draw, releaseSlot } from './links.js';
+import { evalIn, evalNode, truthy, type MatchContext } from './match.js';
+import { send } from './messages.js';
+import type { Net } from './net.js';
+import { twoQubitState } from './pair-state.js';
+import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
+import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
+import type { EngineEvent, FireRecord, PairRecord } from './types.js';
+import { pairValue } from './scope.js';
+
+interface BodyContext extends MatchContext {
+  readonly net: Net;
+  readonly rule: Rule;
+  readonly ev: EngineEvent;
+  readonly fire: FireRecord;
+}
+
+function fail(ctx: BodyContext, step: { pos: Step['pos'] }, message: string, fix?: string): never {
+  throw new ProgramError(message, { pos: step.pos, node: ctx.node, rule: ctx.rule.name, fix });
+}
+
+/** The record of a bound pair that is still held, or a program error. */
+function held(ctx: BodyContext, name: string, step: Step): PairRecord {
+  const qubit = ctx.scope.bindings.pairs.get(name);
+  if (qubit === undefined) fail(ctx, step, `"${name}" is not a pair bound by this rule's guards`);
+  const rec = ctx.w.nodes[ctx.node].pairs[qubit];
+  if (!rec) fail(ctx, step, `pair "${name}" was already measured, discarded or delivered earlier in this rule`);
+  return rec;
+}
+
+function bit(ctx: BodyContext, e: Expr | undefined, step: Step): 0 | 1 {
+  if (!e) return 0;
+  const v = evalIn(e, ctx.scope, { node: ctx.node, rule: ctx.rule.name });
+  if (v === 1 || v === true) return 1;
+  if (v === 0 || v === false) return 0;
+  return fail(ctx, step, `"${e.compiled.source}" gave ${JSON.stringify(v)}, not a bit (0 or 1)`);
+}
+
+function value(ctx: BodyContext, e: Expr): Value {
+  return evalIn(e, ctx.scope, { node: ctx.node, rule: ctx.rule.name });
+}
+
+/** A half leaves this node's memory; remember its last record so later steps can still read it. */
+function release(ctx: BodyContext, name: string, rec: PairRecord): void {
+  const node = ctx.w.nodes[ctx.node];
+  ctx.scope.bindings.values.set(`\u0000pair:${name}`, pairValue(rec, ctx.scope.now));
+  delete node.pairs[rec.qubit];
+  releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
+}
+
+function withCap<T>(ctx: BodyContext, step: Step, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof ClusterTooLargeError) fail(ctx, step, e.message, 'measure or discard halves before entangling more');
+    throw e;
+  }
+}
+
+function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
+  const w = ctx.w;
+  const t = ctx.scope.now;
+  decayTo(ctx.net, w, rec.qubit, t);
+  w.qubits[rec.qubit].frozen = true;
+  release(ctx, name, rec);
+  ctx.ev.delivers.push({ node: ctx.node, pair: rec.id });
+  const other = w.halves[rec.id];
+  if (!other || other.node === ctx.node) {
+    w.halves[rec.id] = { node: ctx.node, qubit: rec.qubit, time: t };
+    ctx.fire.actions.push(`delivered its half of ${shortPairId(rec.id)}`);
+    return;
+  }
+  delete w.halves[rec.id];
+  const [a, b] = ctx.node <= other.node ? [rec.qubit, other.qubit] : [other.qubit, rec.qubit];
+  const rho = twoQubitState(ctx.net, w, a, b, t);
+  const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
+  const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
+  w.delivered.push(record);
+  ctx.ev.deliveries.push(record);
+  traceOut(w, a);
+  traceOut(w, b);
+  ctx.fire.actions.push(`delivered ${shortPairId(rec.id)} (F ${record.fidelity.toFixed(3)})`);
+}
+
+/** Runs a block of steps. */
+export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
+  const w = ctx.w;
+  const noise = ctx.net.nodeNoise(ctx.node).gates;
+  const scope = ctx.scope;
+  for (const step of steps) {
+    switch (step.kind) {
+      case 'gate': {
+        const recs = step.on.map((n) => held(ctx, n, step));
+        for (const r of recs) decayTo(ctx.net, w, r.qubit, scope.now);
+        const angle = step.angle ? value(ctx, step.angle) : undefined;
+        if (angle !== undefined && typeof angle !== 'number') fail(ctx, step, `angle "${step.angle!.compiled.source}" is not a number`);
+        withCap(ctx, step, () => gate(ctx.net, w, step.op, recs.map((r) => r.qubit), angle as number | undefined, MAX_CLUSTER_QUBITS));
+        scope.now += recs.length === 2 ? noise.two.durationNs : noise.single.durationNs;
+        ctx.fire.actions.push(`${step.op} ${recs.map((r) => shortPairId(r.id)).join('→')}`);
+        break;
+      }
+      case 'measure': {
+        const rec = held(ctx, step.on, step);
+        decayTo(ctx.net, w, rec.qubit, scope.now);
+        const b = measureQubit(ctx.net, w, rec.qubit, step.basis, draw(w));
+        release(ctx, step.on, rec);
+        if (step.as) scope.bindings.values.set(step.as, b);
+        scope.now += noise.measure.durationNs;
+        ctx.fire.actions.push(`measured ${shortPairId(rec.id)} in ${step.basis}: ${b}`);
+        break;
+      }
+      case 'bell_measure': {
+        const [r1, r2] = step.on.map((n) => held(ctx, n, step));
+        decayTo(ctx.net, w, r1.qubit, scope.now);
+        decayTo(ctx.net, w, r2.qubit, scope.now);
+        withCap(ctx, step, () => {
+          gate(ctx.net, w, 'cnot', [r1.qubit, r2.qubit], undefined, MAX_CLUSTER_QUBITS);
+          gate(ctx.net, w, 'h', [r1.qubit], undefined, MAX_CLUSTER_QUBITS);
+        });
+        const zb = measureQubit(ctx.net, w, r1.qubit, 'z', draw(w));
+        const xb = measureQubit(ctx.net, w, r2.qubit, 'z', draw(w));
+        release(ctx, step.on[0], r1);
+        release(ctx, step.on[1], r2);
+        scope.bindings.values.set(step.as[0], zb);
+        scope.bindings.values.set(step.as[1], xb);
+        scope.now += noise.two.durationNs + noise.single.durationNs + noise.measure.durationNs;
+        ctx.fire.actions.push(`Bell-measured ${shortPairId(r1.id)} and ${shortPairId(r2.id)}: z=${zb} x=${xb}`);
+        break;
+      }
+      case 'send': {
+        const to = evalNode(step.to, ctx, ctx.rule.name);
+        const pair = step.pair ? value(ctx, step.pair) : null;
+        if (pair !== null && typeof pair !== 'string') fail(ctx, step, `pair "${step.pair!.compiled.source}" is not a pair id`);
+        const data: Record<string, Value> = {};
+        for (const [k, e] of Object.entries(step.data)) data[k] = value(ctx, e);
+        if (!Number.isFinite(ctx.net.distance(ctx.node, to))) {
+          fail(ctx, step, `no fiber path from ${ctx.node} to ${to}`, 'send only to nodes connected through links');
+        }
+        const rec = send(ctx.net, w, { from: ctx.node, to, kind: step.msgKind, pair: pair as string | null, data }, scope.now);
+        ctx.ev.sends.push(rec);
+        ctx.fire.actions.push(`sent ${step.msgKind} to ${to}${rec.dropped ? ' (lost)' : ''}`);
+        break;
+      }
+      case 'stage': {
+        const rec = held(ctx, step.pair, step);
+        rec.stage = step.to;
+        ctx.fire.actions.push(`${shortPairId(rec.id)} → ${step.to}`);
+        break;
+      }
+      case 'note': {
+        const rec = held(ctx, step.pair, step);
+        for (const [k, e] of Object.entries(step.set)) rec.notes[k] = value(ctx, e);
+        break;
+      }
+      case 'correct': {
+        const rec = held(ctx, step.pair, step);
+        const x = bit(ctx, step.x, step);
+        const z = bit(ctx, step.z, step);
+        decayTo(ctx.net, w, rec.qubit, scope.now);
+        if (x) {
+          gate(ctx.net, w, 'x', [rec.qubit], undefined, MAX_CLUSTER_QUBITS);
+          scope.now += noise.single.durationNs;
+        }
+        if (z) {
+          gate(ctx.net, w, 'z', [rec.qubit], undefined, MAX_CLUSTER_QUBITS);
+          scope.now += noise.single.durationNs;
+        }
+        ctx.fire.actions.push(`corrected ${shortPairId(rec.id)}${x || z ? ` (${x ? 'X' : ''}${z ? 'Z' : ''})` : ' (none)'}`);
+        break;
+      }
+      case 'rebind': {
+        const rec = held(ctx, step.pair, step);
+        const before = rec.id;
+        if (step.partner) rec.partner = evalNode(step.partner, ctx, ctx.rule.name);
+        if (step.id) {
+          const id = value(ctx, step.id);
+          if (typeof id !== 'string') fail(ctx, step, `id "${step.id.compiled.source}" gave ${JSON.stringify(id)}, not a pair id`);
+          rec.id = id;
+        }
+        ctx.fire.actions.push(`${shortPairId(before)} is now ${shortPairId(rec.id)} with ${rec.partner}`);
+        break;
+      }
+      case 'discard': {
+        const rec = held(ctx, step.pair, step);
+        traceOut(w, rec.qubit);
+        release(ctx, step.pair, rec);
+        ctx.ev.discards.push({ node: ctx.node, pair: rec.id });
+        ctx.fire.actions.push(`discarded ${shortPairId(rec.id)}`);
+        break;
+      }
+      case 'deliver':
+        deliver(ctx, step.pair, held(ctx, step.pair, step));
+        break;
+      case 'if':
+        runSteps(ctx, truthy(value(ctx, step.cond), step.cond, ctx.node, ctx.rule.name) ? step.then : step.else);
+        break;
+      case 'log':
+        ctx.fire.log.push(step.parts.map((p) => (typeof p === 'string' ? p : formatValue(value(ctx, p)))).join(''));
+        break;
+    }
+  }
+}

@@ -1,0 +1,11 @@
+/** The network engine: the only public surface of engine/. */
+export { Engine, applyNext, hasNext, initialWorld, nextTime, peekNextTime, quiescence, type AdvanceHooks } from './step.js';
+export { Net, derivedSuccess, type LinkInfo } from './net.js';
+export { ProgramError } from './errors.js';
+export { joinIds, linkPairId, parsePairId, shortPairId } from './ids.js';
+export { explainNode, explainRule, guardText, stallReport, type GuardStatus, type RuleExplanation, type StallEntry } from './explain.js';
+export { farHalf, twoQubitState, viewPair, type PairView } from './pair-state.js';
+export { programFunctions, pairValue, messageValue } from './scope.js';
+export { RULE_LOOP_LIMIT } from './scan.js';
+export { seedRng, drawUniform, geometricAttempts } from './rng.js';
+export type * from './types.js';

@@ -1,0 +1,59 @@
+/**
+ * Heralded pair generation. A link attempts while both ends have a free slot for it; the
+ * number of attempts until success is drawn from the geometric distribution, so there is
+ * one event per success, not per attempt.
+ */
+import { linkPairId } from './ids.js';
+import { addCluster } from './qubits.js';
+import { heapPush } from './heap.js';
+import { drawUniform, geometricAttempts } from './rng.js';
+import type { Net } from './net.js';
+import type { World } from './types.js';
+
+/** Draws one uniform number from the world's generator. */
+export function draw(w: World): number {
+  const [u, next] = drawUniform(w.rng);
+  w.rng = next;
+  return u;
+}
+
+export function freeSlots(net: Net, w: World, link: string, node: string): number {
+  return net.links.get(link)!.def.slots - w.links[link].used[node];
+}
+
+/** Starts attempts on a link at time t if it is idle and both ends have a free slot. */
+export function maybeGenerate(net: Net, w: World, link: string, t: number): void {
+  const info = net.links.get(link)!;
+  const state = w.links[link];
+  if (state.generating || info.pSuccess <= 0) return;
+  const [a, b] = info.def.ends;
+  if (freeSlots(net, w, link, a) <= 0 || freeSlots(net, w, link, b) <= 0) return;
+  const k = geometricAttempts(info.pSuccess, draw(w));
+  if (!Number.isFinite(k)) return;
+  const emitted = t + (k - 1) * info.periodNs;
+  state.generating = true;
+  heapPush(w.queue, { time: emitted + info.heraldNs, seq: w.seq++, type: 'herald', link, emitted });
+}
+
+/** The herald has reached both ends: the pair exists at both. Returns the new pair id. */
+export function herald(net: Net, w: World, link: string, emitted: number): string {
+  const info = net.links.get(link)!;
+  const [a, b] = info.def.ends;
+  const [qa, qb] = addCluster(w, [{ node: a, link }, { node: b, link }], info.pairRho, emitted);
+  const id = linkPairId(link, ++w.counters.pair);
+  for (const [node, qubit, partner] of [[a, qa, b], [b, qb, a]] as const) {
+    const n = w.nodes[node];
+    n.pairs[qubit] = { qubit, id, partner, stage: 'link', born: w.time, order: n.arrivals++, link, notes: {} };
+    w.links[link].used[node]++;
+  }
+  w.links[link].generating = false;
+  w.generated[link] = (w.generated[link] ?? 0) + 1;
+  maybeGenerate(net, w, link, w.time);
+  return id;
+}
+
+/** A half left its slot (measured, discarded or delivered): the link may attempt again. */
+export function releaseSlot(net: Net, w: World, link: string, node: string, t: number): void {
+  w.links[link].used[node]--;
+  maybeGenerate(net, w, link, t);
+}

@@ -1,0 +1,175 @@
+/**
+ * Guard matching. Guards are tried in order; `have` (count 1) and `got` try their
+ * candidates in pick order and backtrack when a later guard fails, so the first binding in
+ * that order that satisfies every guard wins. The deepest guard reached is remembered for
+ * explanations ("why is this rule not firing?").
+ */
+import { evaluate, ExprError } from '../expr/index.js';
+import type { Value } from '../expr/types.js';
+import type { Expr, Guard, HaveGuard, Rule } from '../model/types.js';
+import { ProgramError } from './errors.js';
+import type { Bindings, RuleScope } from './scope.js';
+import type { Message, PairRecord, World } from './types.js';
+
+/** Search steps allowed per rule attempt before the matcher gives up on that rule. */
+const SEARCH_BUDGET = 20_000;
+
+export interface MatchContext {
+  readonly w: World;
+  readonly node: string;
+  readonly scope: RuleScope;
+  readonly nodeIds: ReadonlySet<string>;
+}
+
+/** Where the search got furthest: the guard that failed and the bindings in force then. */
+export interface DeepestFailure {
+  guard: number;
+  bound: { pairs: Map<string, string>; messages: Map<string, Message>; values: Map<string, Value> };
+}
+
+/** Evaluates an expression for a rule, turning expression errors into program errors at the file position. */
+export function evalIn(expr: Expr, scope: RuleScope, where: { node: string; rule: string }): Value {
+  try {
+    return evaluate(expr.compiled, scope);
+  } catch (e) {
+    if (e instanceof ExprError) {
+      const pos =
+        e.line === 1
+          ? { ...expr.pos, col: expr.pos.col + e.col - 1 }
+          : { ...expr.pos, line: expr.pos.line + e.line - 1, col: e.col };
+      throw new ProgramError(`${e.detail} in "${expr.compiled.source}"`, { pos, ...where });
+    }
+    throw e;
+  }
+}
+
+/** A node id from an expression, or a program error saying what it gave instead. */
+export function evalNode(expr: Expr, ctx: MatchContext, rule: string): string {
+  const v = evalIn(expr, ctx.scope, { node: ctx.node, rule });
+  if (typeof v === 'string' && ctx.nodeIds.has(v)) return v;
+  throw new ProgramError(`"${expr.compiled.source}" gave ${JSON.stringify(v)}, which is not a node id`, {
+    pos: expr.pos,
+    node: ctx.node,
+    rule,
+    fix: 'use a node id (e.g. partner: mill) or a field that holds one (e.g. p.partner)',
+  });
+}
+
+/** A guard's truth value; 0/1 count as false/true. */
+export function truthy(v: Value, expr: Expr, node: string, rule: string): boolean {
+  if (v === true || v === 1) return true;
+  if (v === false || v === 0) return false;
+  throw new ProgramError(`"${expr.compiled.source}" gave ${JSON.stringify(v)}, not true or false`, {
+    pos: expr.pos,
+    node,
+    rule,
+  });
+}
+
+/** Free halves at the node matching a `have` guard's partner, stage and age window, in pick order. */
+export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<string>): PairRecord[] {
+  const now = ctx.scope.now;
+  const out: PairRecord[] = [];
+  for (const rec of Object.values(ctx.w.nodes[ctx.node].pairs)) {
+    if (rec.partner !== partner || rec.stage !== g.stage || used.has(rec.qubit)) continue;
+    const age = now - rec.born;
+    if (g.minAgeNs !== undefined && age < g.minAgeNs) continue;
+    if (g.maxAgeNs !== undefined && age > g.maxAgeNs) continue;
+    out.push(rec);
+  }
+  out.sort((a, b) => (g.pick === 'newest' ? b.order - a.order : a.order - b.order));
+  return out;
+}
+
+/** Messages in the inbox of the given kind (and sender), oldest first. */
+export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: ReadonlySet<string>): Message[] {
+  return ctx.w.nodes[ctx.node].inbox.filter(
+    (m) => m.kind === kind && (from === undefined || m.from === from) && !used.has(m.id),
+  );
+}
+
+function snapshot(b: Bindings): DeepestFailure['bound'] {
+  return { pairs: new Map(b.pairs), messages: new Map(b.messages), values: new Map(b.values) };
+}
+
+/**
+ * Tries a rule's guards against the node's current state. On success the bindings hold the
+ * matched pairs and messages; on failure `deepest` (if given) tells which guard blocked it.
+ */
+export function matchRule(ctx: MatchContext, rule: Rule, deepest?: { value?: DeepestFailure }): boolean {
+  const b = ctx.scope.bindings;
+  b.clear();
+  let budget = SEARCH_BUDGET;
+  const guards = rule.when;
+  const where = { node: ctx.node, rule: rule.name };
+
+  const fail = (i: number): false => {
+    if (deepest && (deepest.value === undefined || i > deepest.value.guard)) deepest.value = { guard: i, bound: snapshot(b) };
+    return false;
+  };
+
+  const bindPair = (name: string | undefined, rec: PairRecord): void => {
+    b.usedQubits.add(rec.qubit);
+    if (name) b.pairs.set(name, rec.qubit);
+  };
+  const unbindPair = (name: string | undefined, rec: PairRecord): void => {
+    b.usedQubits.delete(rec.qubit);
+    if (name) b.pairs.delete(name);
+  };
+
+  const search = (i: number): boolean => {
+    if (--budget < 0) return false;
+    if (i === guards.length) return true;
+    const g: Guard = guards[i];
+    switch (g.kind) {
+      case 'have': {
+        const partner = evalNode(g.partner, ctx, rule.name);
+        const cands = haveCandidates(ctx, g, partner, b.usedQubits);
+        if (cands.length < g.count) return fail(i);
+        if (g.count === 1) {
+          for (const rec of cands) {
+            bindPair(g.as[0], rec);
+            if (search(i + 1)) return true;
+            unbindPair(g.as[0], rec);
+          }
+          return fail(i);
+        }
+        const chosen = cands.slice(0, g.count);
+        chosen.forEach((rec, k) => bindPair(g.as[k], rec));
+        if (search(i + 1)) return true;
+        chosen.forEach((rec, k) => unbindPair(g.as[k], rec));
+        return fail(i);
+      }
+      case 'have-id': {
+        const id = evalIn(g.id, ctx.scope, where);
+        const rec = Object.values(ctx.w.nodes[ctx.node].pairs).find(
+          (p) => p.id === id && (g.stage === undefined || p.stage === g.stage) && !b.usedQubits.has(p.qubit),
+        );
+        if (!rec) return fail(i);
+        bindPair(g.as, rec);
+        if (search(i + 1)) return true;
+        unbindPair(g.as, rec);
+        return fail(i);
+      }
+      case 'got': {
+        const from = g.from ? evalNode(g.from, ctx, rule.name) : undefined;
+        for (const m of gotCandidates(ctx, g.msgKind, from, b.usedMessages)) {
+          b.usedMessages.add(m.id);
+          if (g.as) b.messages.set(g.as, m);
+          if (search(i + 1)) return true;
+          b.usedMessages.delete(m.id);
+          if (g.as) b.messages.delete(g.as);
+        }
+        return fail(i);
+      }
+      case 'check': {
+        if (truthy(evalIn(g.expr, ctx.scope, where), g.expr, ctx.node, rule.name)) {
+          if (search(i + 1)) return true;
+        }
+        return fail(i);
+      }
+    }
+  };
+
+  return search(0);
+}

@@ -1,0 +1,61 @@
+/**
+ * Classical messages: any node may send to any node; the delay is the shortest fiber path
+ * over the fiber speed plus the extra delay, and the noise model's faults apply in order.
+ */
+import type { Value } from '../expr/types.js';
+import { heapPush } from './heap.js';
+import { draw } from './links.js';
+import type { Net } from './net.js';
+import type { SendRecord, World } from './types.js';
+
+export interface Outgoing {
+  from: string;
+  to: string;
+  kind: string;
+  pair: string | null;
+  data: Record<string, Value>;
+}
+
+/** Sends a message at time t; returns what happened to it. Infinity delay means no fiber path. */
+export function send(net: Net, w: World, msg: Outgoing, t: number): SendRecord {
+  const id = `m${++w.counters.message}`;
+  w.counters.sent++;
+  let delay = net.messageDelay(msg.from, msg.to);
+  let dropped: string | undefined;
+  net.noise.faults.forEach((f, i) => {
+    if (f.from !== undefined && f.from !== msg.from) return;
+    if (f.to !== undefined && f.to !== msg.to) return;
+    if (f.msgKind !== undefined && f.msgKind !== msg.kind) return;
+    const hits = (w.counters.faultHits[i] ?? 0) + 1;
+    w.counters.faultHits[i] = hits;
+    if (f.kind === 'drop' && hits === f.nth && !dropped) dropped = `fault: drop #${f.nth} ${describe(f)}`;
+    if (f.kind === 'delay') delay += f.byNs;
+  });
+  const loss = net.noise.defaults.classical.loss;
+  if (!dropped && loss > 0 && draw(w) < loss) dropped = `lost on the channel (loss ${loss})`;
+  const arrives = t + delay;
+  if (dropped) {
+    w.counters.dropped++;
+    return { id, ...pick(msg), sent: t, arrives, dropped };
+  }
+  w.inflight[id] = { id, ...msg, sent: t, arrives };
+  heapPush(w.queue, { time: arrives, seq: w.seq++, type: 'arrive', message: id });
+  return { id, ...pick(msg), sent: t, arrives };
+}
+
+function pick(m: Outgoing): Pick<SendRecord, 'from' | 'to' | 'kind' | 'pair'> {
+  return { from: m.from, to: m.to, kind: m.kind, pair: m.pair };
+}
+
+function describe(f: { from?: string; to?: string; msgKind?: string }): string {
+  return `${f.msgKind ?? 'any kind'} ${f.from ?? 'any'}→${f.to ?? 'any'}`;
+}
+
+/** A message reaches its receiver's inbox. */
+export function arrive(w: World, id: string): { to: string; from: string; kind: string; pair: string | null } {
+  const m = w.inflight[id];
+  delete w.inflight[id];
+  w.nodes[m.to].inbox.push(m);
+  w.counters.arrived++;
+  return { to: m.to, from: m.from, kind: m.kind, pair: m.pair };
+}

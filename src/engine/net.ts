@@ -1,0 +1,136 @@
+/**
+ * The static side of a simulation: the program set and noise model with everything the
+ * engine derives from them once (link rates and delays, fiber distances, per-node noise).
+ * It never changes during a run and is not part of the world.
+ */
+import type { LinkDef, LinkNoise, NodeNoise, NoiseModel, ProgramSet, Rule } from '../model/types.js';
+import { bellDiagonal, bitFlipState, wernerState, type Rho } from '../quantum/index.js';
+
+export interface LinkInfo {
+  readonly def: LinkDef;
+  readonly noise: LinkNoise;
+  /** Success probability per attempt. */
+  readonly pSuccess: number;
+  /** Time between attempts (ns). */
+  readonly periodNs: number;
+  /** From emission to the herald reaching both ends, via the midpoint station (ns). */
+  readonly heraldNs: number;
+  /** The state of a freshly made pair, ends[0]'s half first. */
+  readonly pairRho: Rho;
+}
+
+/** Success probability from fiber loss and detector efficiency (REFERENCES.md, fiber and links). */
+export function derivedSuccess(noise: LinkNoise, lengthM: number): number {
+  const s = noise.success;
+  if (s.kind === 'fixed') return s.p;
+  // each arm is half the link; transmittance 10^(-alpha L / 10) (common practice)
+  const armKm = lengthM / 2000;
+  const etaArm = Math.pow(10, (-s.fiberLossDbPerKm * armKm) / 10);
+  const etaDet = s.detectorEfficiency;
+  if (s.scheme === 'double-click') {
+    // Barrett & Kok, Phys. Rev. A 71, 060310(R) (2005): p = 1/2 eta_arm^2 eta_det^2
+    return 0.5 * etaArm * etaArm * etaDet * etaDet;
+  }
+  // single-click: p = 2 p_emit eta_arm eta_det (a demo model, REFERENCES.md)
+  return Math.min(1, 2 * (s.brightState ?? 0) * etaArm * etaDet);
+}
+
+function pairState(noise: LinkNoise): Rho {
+  const p = noise.pair;
+  if (p.kind === 'werner') return wernerState(p.f);
+  if (p.kind === 'bit_flip') return bitFlipState(p.f);
+  return bellDiagonal(p.coeffs);
+}
+
+export class Net {
+  readonly programSet: ProgramSet;
+  readonly noise: NoiseModel;
+  /** Node ids, sorted. */
+  readonly nodeIds: readonly string[];
+  readonly nodeSet: ReadonlySet<string>;
+  readonly links: ReadonlyMap<string, LinkInfo>;
+  /** Link ids at each node, sorted. */
+  readonly linksAt: ReadonlyMap<string, readonly string[]>;
+  readonly rules: ReadonlyMap<string, readonly Rule[]>;
+  readonly qubitsAt: ReadonlyMap<string, number>;
+  /** Fiber speed (m/s), used for heralds and classical messages alike. */
+  readonly speed: number;
+  private readonly distCache = new Map<string, Map<string, number>>();
+
+  constructor(programSet: ProgramSet, noise: NoiseModel) {
+    this.programSet = programSet;
+    this.noise = noise;
+    this.nodeIds = programSet.nodes.map((n) => n.id).sort();
+    this.nodeSet = new Set(this.nodeIds);
+    this.speed = noise.defaults.classical.speedMPerS;
+    this.qubitsAt = new Map(programSet.nodes.map((n) => [n.id, n.qubits]));
+    const links = new Map<string, LinkInfo>();
+    const at = new Map<string, string[]>(this.nodeIds.map((id) => [id, []]));
+    for (const def of programSet.links) {
+      const noise = this.noise.links[def.id] ?? this.noise.defaults.link;
+      const periodNs =
+        noise.attemptPeriod === 'fiber' ? Math.round((def.lengthM / this.speed) * 1e9) : noise.attemptPeriod;
+      links.set(def.id, {
+        def,
+        noise,
+        pSuccess: derivedSuccess(noise, def.lengthM),
+        periodNs,
+        heraldNs: Math.round((def.lengthM / 2 / this.speed) * 1e9),
+        pairRho: pairState(noise),
+      });
+      at.get(def.ends[0])?.push(def.id);
+      at.get(def.ends[1])?.push(def.id);
+    }
+    for (const list of at.values()) list.sort();
+    this.links = links;
+    this.linksAt = at;
+    this.rules = new Map(this.nodeIds.map((id) => [id, programSet.programs[id]?.rules ?? []]));
+  }
+
+  nodeNoise(node: string): NodeNoise {
+    return this.noise.nodes[node] ?? { memory: this.noise.defaults.memory, gates: this.noise.defaults.gates };
+  }
+
+  /** Shortest fiber distance in metres, or Infinity when there is no path (Dijkstra, cached per source). */
+  distance(from: string, to: string): number {
+    if (from === to) return 0;
+    let row = this.distCache.get(from);
+    if (!row) {
+      row = this.dijkstra(from);
+      this.distCache.set(from, row);
+    }
+    return row.get(to) ?? Infinity;
+  }
+
+  /** Classical delay from one node to another (ns), without faults. */
+  messageDelay(from: string, to: string): number {
+    const d = this.distance(from, to);
+    if (!Number.isFinite(d)) return Infinity;
+    return Math.round((d / this.speed) * 1e9) + this.noise.defaults.classical.extraDelayNs;
+  }
+
+  private dijkstra(source: string): Map<string, number> {
+    const dist = new Map<string, number>([[source, 0]]);
+    const done = new Set<string>();
+    // networks are small (hundreds of nodes): a linear scan for the minimum is enough
+    for (;;) {
+      let best: string | undefined;
+      let bestD = Infinity;
+      for (const [n, d] of dist) {
+        if (!done.has(n) && (d < bestD || (d === bestD && best !== undefined && n < best))) {
+          best = n;
+          bestD = d;
+        }
+      }
+      if (best === undefined) break;
+      done.add(best);
+      for (const lid of this.linksAt.get(best) ?? []) {
+        const l = this.links.get(lid)!.def;
+        const other = l.ends[0] === best ? l.ends[1] : l.ends[0];
+        const nd = bestD + l.lengthM;
+        if (nd < (dist.get(other) ?? Infinity)) dist.set(other, nd);
+      }
+    }
+    return dist;
+  }
+}

@@ -1,0 +1,98 @@
+/**
+ * The rule interpreter's outer loop: after an event touches a node, its rules are tried in
+ * order and the first whose guards hold fires; the scan restarts until none fires. Then
+ * wake-ups are scheduled for the moments age guards will change their answer.
+ */
+import { evaluate } from '../expr/index.js';
+import type { Rule } from '../model/types.js';
+import { ProgramError } from './errors.js';
+import { heapPush } from './heap.js';
+import { runSteps } from './fire.js';
+import { matchRule, type MatchContext } from './match.js';
+import type { Net } from './net.js';
+import { Bindings, RuleScope } from './scope.js';
+import type { EngineEvent, FireRecord, World } from './types.js';
+
+/** A node that fires more than this many times within one event is in a rule loop (FORMAT.md §1). */
+export const RULE_LOOP_LIMIT = 1000;
+
+/** Schedules a wake-up for a node at time t, unless one at or before t is already pending. */
+export function requestWake(w: World, node: string, t: number, why: string): void {
+  const n = w.nodes[node];
+  if (n.nextWake !== null && n.nextWake > w.time && n.nextWake <= t) return;
+  n.nextWake = t;
+  heapPush(w.queue, { time: t, seq: w.seq++, type: 'wake', node, why });
+}
+
+function describeBound(ctx: MatchContext): Record<string, string> {
+  const out: Record<string, string> = {};
+  const pairs = ctx.w.nodes[ctx.node].pairs;
+  for (const [name, q] of ctx.scope.bindings.pairs) out[name] = pairs[q]?.id ?? q;
+  for (const [name, m] of ctx.scope.bindings.messages) out[name] = `${m.kind} from ${m.from}${m.pair ? ` about ${m.pair}` : ''}`;
+  return out;
+}
+
+/** Tries the node's rules until none fires. */
+export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): void {
+  const rules = net.rules.get(node);
+  if (!rules || rules.length === 0) return;
+  const state = w.nodes[node];
+  const scope = new RuleScope(net, w, node, new Bindings());
+  const ctx: MatchContext = { w, node, scope, nodeIds: net.nodeSet };
+  let fires = 0;
+  let last: Rule | undefined;
+  for (;;) {
+    if (state.busyUntil > w.time) {
+      requestWake(w, node, state.busyUntil, 'operations done');
+      break;
+    }
+    scope.now = w.time;
+    const rule = rules.find((r) => matchRule(ctx, r));
+    if (!rule) break;
+    if (++fires > RULE_LOOP_LIMIT) {
+      throw new ProgramError(`rule loop: fired more than ${RULE_LOOP_LIMIT} times within one event (last: ${rule.name}, before it: ${last?.name ?? '-'})`, {
+        pos: rule.pos,
+        node,
+        rule: rule.name,
+        fix: 'make the rule consume what its guards match (stage, measure, discard the pair or bind the message), or add a guard that stops it',
+      });
+    }
+    last = rule;
+    const fire: FireRecord = { node, rule: rule.name, bound: describeBound(ctx), actions: [], log: [] };
+    // consume the matched messages before the body runs, so it cannot match them again
+    const used = scope.bindings.usedMessages;
+    if (used.size > 0) state.inbox = state.inbox.filter((m) => !used.has(m.id));
+    runSteps({ ...ctx, net, rule, ev, fire }, rule.do);
+    ev.fires.push(fire);
+    const byNode = (w.fired[node] ??= {});
+    byNode[rule.name] = (byNode[rule.name] ?? 0) + 1;
+    if (scope.now > w.time) state.busyUntil = scope.now;
+  }
+  scheduleAgeWakes(net, w, node, rules);
+}
+
+/** Next moment a pair at the node reaches some rule's `min_age` or passes its `max_age`. */
+function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule[]): void {
+  const pairs = Object.values(w.nodes[node].pairs);
+  if (pairs.length === 0) return;
+  let next = Infinity;
+  for (const rule of rules) {
+    for (const g of rule.when) {
+      if (g.kind !== 'have' || (g.minAgeNs === undefined && g.maxAgeNs === undefined)) continue;
+      const partner = staticPartner(net, g.partner.compiled);
+      for (const p of pairs) {
+        if (p.stage !== g.stage || (partner !== undefined && p.partner !== partner)) continue;
+        if (g.minAgeNs !== undefined && p.born + g.minAgeNs > w.time) next = Math.min(next, p.born + g.minAgeNs);
+        if (g.maxAgeNs !== undefined && p.born + g.maxAgeNs + 1 > w.time) next = Math.min(next, p.born + g.maxAgeNs + 1);
+      }
+    }
+  }
+  if (Number.isFinite(next)) requestWake(w, node, next, 'age limit');
+}
+
+/** The partner a guard names when it names a node directly; undefined when it depends on bindings. */
+function staticPartner(net: Net, c: { names: readonly string[]; calls: readonly string[] } & Parameters<typeof evaluate>[0]): string | undefined {
+  if (c.calls.length > 0 || c.names.some((n) => !net.nodeSet.has(n))) return undefined;
+  const v = evaluate(c, { lookup: (n) => (net.nodeSet.has(n) ? n : undefined), functions: {} });
+  return typeof v === 'string' ? v : undefined;
+}

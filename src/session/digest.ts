@@ -1,0 +1,115 @@
+/**
+ * Per-event digests for replay files. A digest chains the previous digest with what the
+ * event touched: the clock, the generator, the counters, and the full state of every
+ * touched node, its pairs' clusters (density matrices bit for bit) and links. A world
+ * that differs after some event either differs in what that event touched or already
+ * differed before it, so the first differing digest marks the first divergent event.
+ * The hash is a 2×32-bit multiplicative mix, not cryptographic: it only has to notice change.
+ */
+import type { EngineEvent, World } from '../engine/index.js';
+
+class Hasher {
+  private a = 0x811c9dc5 | 0;
+  private b = 0x9e3779b9 | 0;
+  private readonly f64 = new Float64Array(1);
+  private readonly u32 = new Uint32Array(this.f64.buffer);
+
+  int(x: number): void {
+    this.a = Math.imul(this.a ^ (x | 0), 0x01000193);
+    this.b = Math.imul(this.b ^ (x | 0), 0x5bd1e995);
+    this.b ^= this.b >>> 15;
+  }
+
+  num(x: number): void {
+    if (Number.isInteger(x) && Math.abs(x) < 2 ** 31) {
+      this.int(x);
+      return;
+    }
+    this.f64[0] = x;
+    this.int(this.u32[0]);
+    this.int(this.u32[1]);
+  }
+
+  str(s: string): void {
+    this.int(s.length);
+    for (let i = 0; i < s.length; i++) this.int(s.charCodeAt(i));
+  }
+
+  floats(data: Float64Array): void {
+    const words = new Uint32Array(data.buffer, data.byteOffset, data.length * 2);
+    this.int(words.length);
+    for (let i = 0; i < words.length; i++) this.int(words[i]);
+  }
+
+  hex(): string {
+    const h = (x: number) => (x >>> 0).toString(16).padStart(8, '0');
+    return h(this.a) + h(this.b);
+  }
+}
+
+/** The digest of the world after `ev`, chained to the previous event's digest. */
+export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
+  const h = new Hasher();
+  h.str(prev);
+  h.num(ev.index);
+  h.num(w.time);
+  h.num(w.seq);
+  for (const x of w.rng) h.int(x);
+  const c = w.counters;
+  for (const x of [c.qubit, c.cluster, c.pair, c.message, c.sent, c.arrived, c.dropped, w.delivered.length, w.queue.length]) h.num(x);
+  h.str(ev.summary);
+  const clusters = new Set<string>();
+  const links = new Set<string>();
+  for (const id of ev.nodes) {
+    const n = w.nodes[id];
+    h.str(id);
+    h.num(n.busyUntil);
+    h.num(n.nextWake ?? -1);
+    h.num(n.arrivals);
+    for (const q of Object.keys(n.pairs).sort()) {
+      const p = n.pairs[q];
+      h.str(q);
+      h.str(p.id);
+      h.str(p.partner);
+      h.str(p.stage);
+      h.num(p.born);
+      h.num(p.order);
+      h.str(p.link);
+      links.add(p.link);
+      const notes = Object.keys(p.notes);
+      if (notes.length) h.str(JSON.stringify(notes.sort().map((k) => [k, p.notes[k]])));
+      const qs = w.qubits[q];
+      if (qs) {
+        h.num(qs.decayedTo);
+        clusters.add(qs.cluster);
+      }
+    }
+    for (const m of n.inbox) h.str(m.id);
+  }
+  for (const s of ev.sends) {
+    h.str(s.id);
+    h.num(s.arrives);
+  }
+  for (const cid of [...clusters].sort()) {
+    const cl = w.clusters[cid];
+    if (!cl) continue;
+    h.str(cid);
+    for (const q of cl.qubits) h.str(q);
+    h.floats(cl.rho.data);
+  }
+  for (const lid of [...links].sort()) {
+    const l = w.links[lid];
+    if (!l) continue;
+    h.str(lid);
+    h.int(l.generating ? 1 : 0);
+    for (const k of Object.keys(l.used).sort()) h.num(l.used[k]);
+  }
+  for (const d of ev.deliveries) {
+    h.str(d.id);
+    h.num(d.fidelity);
+  }
+  return h.hex();
+}
+
+/** The digest before the first event. */
+export const GENESIS_DIGEST = '0000000000000000';

@@ -1,0 +1,181 @@
+/**
+ * Replay files (FORMAT.md §7): the embedded inputs with their SHA-256, the seed,
+ * breakpoints, expectations, the stop, every event with its digest, and a checksum over
+ * everything else. Export, import with validation, and verification by re-running.
+ */
+import { createHash } from 'node:crypto';
+import { basename } from 'node:path';
+import type { Engine, EngineEvent, World } from '../engine/index.js';
+import { InputError } from '../model/errors.js';
+import type { ProgramSet, NoiseModel } from '../model/types.js';
+import { eventDigest, GENESIS_DIGEST } from './digest.js';
+import type { Stop } from './summary.js';
+
+export const REPLAY_FORMAT = 'bellstep/replay@1';
+export const TOOL = { name: 'bellstep', version: '0.1.0' } as const;
+
+export interface ReplayInput {
+  file: string;
+  text: string;
+  sha256: string;
+}
+
+export interface ReplayEvent {
+  index: number;
+  time_ns: number;
+  node: string;
+  kind: string;
+  summary: string;
+  digest: string;
+}
+
+export interface ReplayFile {
+  format: string;
+  tool: { name: string; version: string };
+  inputs: { program_set: ReplayInput; noise: ReplayInput | null };
+  seed: number;
+  breakpoints: string[];
+  expectations: string[];
+  stop: Stop;
+  events: ReplayEvent[];
+  checksum: string;
+}
+
+export function sha256(text: string): string {
+  return createHash('sha256').update(text, 'utf8').digest('hex');
+}
+
+/** JSON with object keys sorted at every level, so the checksum ignores layout and key order. */
+export function canonicalJson(v: unknown): string {
+  if (Array.isArray(v)) return `[${v.map(canonicalJson).join(',')}]`;
+  if (v !== null && typeof v === 'object') {
+    const keys = Object.keys(v).sort();
+    return `{${keys.map((k) => `${JSON.stringify(k)}:${canonicalJson((v as Record<string, unknown>)[k])}`).join(',')}}`;
+  }
+  return JSON.stringify(v);
+}
+
+/** The checksum of a replay object: SHA-256 of the canonical JSON of everything but `checksum`. */
+export function replayChecksum(r: Omit<ReplayFile, 'checksum'> & { checksum?: string }): string {
+  const { checksum: _omit, ...rest } = r;
+  return `sha256:${sha256(canonicalJson(rest))}`;
+}
+
+/** The replay event line of an engine event. */
+export function replayEvent(ev: EngineEvent, digest: string): ReplayEvent {
+  return { index: ev.index, time_ns: ev.time, node: ev.node, kind: ev.type, summary: ev.summary, digest };
+}
+
+function input(file: string, text: string): ReplayInput {
+  return { file: basename(file), text, sha256: sha256(text) };
+}
+
+/** Serialises a replay with one event per line, so files diff well. */
+export function serializeReplay(r: ReplayFile): string {
+  const head = Object.entries(r)
+    .filter(([k]) => k !== 'events' && k !== 'checksum')
+    .map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
+  const events = r.events.map((e) => `    ${JSON.stringify(e)}`).join(',\n');
+  return `{\n${head.join(',\n')},\n  "events": [\n${events}\n  ],\n  "checksum": ${JSON.stringify(r.checksum)}\n}\n`;
+}
+
+/** Builds a replay file from inputs and recorded events. */
+export function buildReplay(
+  programSet: ProgramSet,
+  noise: NoiseModel,
+  meta: { seed: number; breakpoints: readonly string[]; expectations: readonly string[] },
+  stop: Stop,
+  events: ReplayEvent[],
+): ReplayFile {
+  const body = {
+    format: REPLAY_FORMAT,
+    tool: { ...TOOL },
+    inputs: {
+      program_set: input(programSet.file, programSet.text),
+      noise: noise.file ? input(noise.file, noise.text) : null,
+    },
+    seed: meta.seed,
+    breakpoints: [...meta.breakpoints],
+    expectations: [...meta.expectations],
+    stop,
+    events,
+  };
+  return { ...body, checksum: replayChecksum(body) };
+}
+
+/** Records events and digests during a run and produces the replay file. */
+export class Recorder {
+  readonly events: ReplayEvent[] = [];
+  private digest = GENESIS_DIGEST;
+
+  constructor(
+    private readonly engine: Engine,
+    private readonly meta: { seed: number; breakpoints: readonly string[]; expectations: readonly string[] },
+  ) {}
+
+  /** Adds an event with the world after it. */
+  add(ev: EngineEvent, w: World): void {
+    this.digest = eventDigest(this.digest, ev, w);
+    this.events.push(replayEvent(ev, this.digest));
+  }
+
+  /** The replay text for a run that ended with `stop`. */
+  finish(stop: Stop): string {
+    const { programSet, noise } = this.engine.net;
+    return serializeReplay(buildReplay(programSet, noise, this.meta, stop, this.events));
+  }
+
+  /** The replay of the run so far, for the automatic replay written on an internal error. */
+  partial(why: string): string {
+    const n = this.events.length;
+    return this.finish({ reason: 'events', detail: `automatic replay of the first ${n} events: ${why}` });
+  }
+}
+
+function bad(message: string, fix: string, file?: string): InputError {
+  return new InputError({ code: 'replay', file, message, fix });
+}
+
+/** Parses and validates a replay file; refuses foreign, truncated, newer or tampered files (exit 2). */
+export function parseReplay(text: string, file?: string): ReplayFile {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    const truncated = text.trim().length > 0 && !text.trim().endsWith('}');
+    throw bad(
+      truncated ? 'the replay file is truncated (it does not end with a closing brace)' : `not valid JSON: ${(e as Error).message}`,
+      'use the complete file written by `bellstep run --record` or by the debugger',
+      file,
+    );
+  }
+  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) throw bad('not a replay file (expected a JSON object)', 'pass a file written by `bellstep run --record`', file);
+  const r = raw as Partial<ReplayFile>;
+  if (typeof r.format !== 'string' || !r.format.startsWith('bellstep/replay@')) {
+    throw bad(`not a bellstep replay file (format is ${JSON.stringify(r.format ?? null)})`, `expected "format": "${REPLAY_FORMAT}"`, file);
+  }
+  if (r.format !== REPLAY_FORMAT) {
+    const v = Number(r.format.split('@')[1]);
+    throw bad(
+      Number.isFinite(v) && v > 1 ? `the replay was written by a newer bellstep (format ${r.format}); this one reads ${REPLAY_FORMAT}` : `unsupported replay format ${r.format}`,
+      'open it with the bellstep version that wrote it (see its "tool" field)',
+      file,
+    );
+  }
+  for (const key of ['tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'stop', 'events', 'checksum'] as const) {
+    if (!(key in r)) throw bad(`the replay file has no "${key}" (truncated or edited by hand)`, 'use the complete file as written by bellstep', file);
+  }
+  if (!Array.isArray(r.events) || typeof r.checksum !== 'string' || !r.inputs?.program_set) {
+    throw bad('the replay file has the wrong shape', 'use the file as written by bellstep', file);
+  }
+  const full = r as ReplayFile;
+  if (replayChecksum(full) !== full.checksum) {
+    throw bad('checksum mismatch: the replay file was changed after it was written', 'record the run again; do not edit replay files by hand', file);
+  }
+  for (const [name, inp] of [['program set', full.inputs.program_set], ['noise model', full.inputs.noise]] as const) {
+    if (inp && sha256(inp.text) !== inp.sha256) {
+      throw bad(`the embedded ${name} does not match its SHA-256`, 'record the run again; do not edit replay files by hand', file);
+    }
+  }
+  return full;
+}

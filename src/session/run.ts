@@ -1,0 +1,143 @@
+/**
+ * Headless runs: apply events in batches until a limit, a breakpoint, a stall or an idle
+ * network, then evaluate the expectations and build the summary. `bellstep run`, sweeps and
+ * replay verification all run through here.
+ */
+import { evaluate, ExprError, formatValue, parseExpr } from '../expr/index.js';
+import type { Compiled, Value } from '../expr/types.js';
+import { InputError } from '../model/errors.js';
+import { quiescence, stallReport, type Engine, type EngineEvent, type World } from '../engine/index.js';
+import { formatDuration } from '../model/units.js';
+import { breakpointHit, conditionHolds, type Breakpoint } from './breakpoints.js';
+import { debugScope, DEBUG_FUNCTION_NAMES } from './debug-functions.js';
+import { summarize, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
+
+/** Events a run applies when neither --until nor --events is given, so that it always ends. */
+export const DEFAULT_MAX_EVENTS = 1_000_000;
+
+/** Events per immer `produce` in headless runs. */
+const BATCH = 2048;
+
+export interface Expectation {
+  readonly spec: string;
+  readonly compiled: Compiled;
+}
+
+/** Parses an expectation; throws InputError with the column and a fix when it does not parse. */
+export function parseExpectation(spec: string): Expectation {
+  try {
+    const compiled = parseExpr(spec);
+    const allowed = new Set<string>([...DEBUG_FUNCTION_NAMES, 'xor', 'min', 'max', 'abs', 'floor', 'round', 'join']);
+    const bad = compiled.calls.find((c) => !allowed.has(c));
+    if (bad) {
+      throw new InputError({ code: 'usage', field: '--expect', message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...allowed].join(', ')}` });
+    }
+    return { spec, compiled };
+  } catch (e) {
+    if (e instanceof ExprError) {
+      throw new InputError({ code: 'expression', field: '--expect', message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
+    }
+    throw e;
+  }
+}
+
+export interface RunOptions {
+  readonly seed: number;
+  readonly untilNs?: number;
+  readonly maxEvents?: number;
+  readonly breakpoints?: readonly Breakpoint[];
+  readonly expectations?: readonly Expectation[];
+  /** Sees every applied event and the (draft) world after it, e.g. to record digests. */
+  readonly onEvent?: (ev: EngineEvent, world: World) => void;
+  /** Called between batches with the world so far, e.g. for progress on stderr. */
+  readonly onBatch?: (world: World) => void;
+}
+
+export interface RunResult {
+  readonly world: World;
+  readonly stop: Stop;
+  readonly summary: RunSummary;
+  /** The breakpoint that stopped the run, if one did. */
+  readonly breakpoint?: Breakpoint;
+}
+
+/** Evaluates expectations on a final world. A failed evaluation is a failed expectation. */
+export function checkExpectations(engine: Engine, w: World, exps: readonly Expectation[]): ExpectationResult[] {
+  return exps.map((e) => {
+    let value: Value;
+    try {
+      value = evaluate(e.compiled, debugScope(engine.net, w));
+    } catch (err) {
+      const msg = err instanceof ExprError ? err.detail : err instanceof Error ? err.message : String(err);
+      return { expr: e.spec, ok: false, value: `error: ${msg}` };
+    }
+    return { expr: e.spec, ok: value === true || value === 1, value };
+  });
+}
+
+/** Runs from the initial world of `opts.seed` (or from `from`) until a stop condition. */
+export function runHeadless(engine: Engine, opts: RunOptions, from?: World): RunResult {
+  let world = from ?? engine.initial(opts.seed);
+  const limit = opts.maxEvents ?? (opts.untilNs === undefined ? DEFAULT_MAX_EVENTS : Infinity);
+  const bps = (opts.breakpoints ?? []).filter((b) => b.enabled);
+  const conds = bps.filter((b) => b.kind === 'condition');
+  // condition breakpoints hit on a change from false to true
+  const held = new Map(conds.map((b) => [b.id, conditionHolds(engine.net, world, b).holds]));
+  let stop: Stop | undefined;
+  let hitBp: Breakpoint | undefined;
+  const startEvents = world.events;
+
+  while (!stop) {
+    const done = world.events - startEvents;
+    if (done >= limit) {
+      stop = { reason: 'events', detail: `reached the event limit (${limit})` };
+      break;
+    }
+    const r = engine.advance(world, Math.min(BATCH, limit - done), {
+      before: (_d, t) => {
+        if (opts.untilNs !== undefined && t > opts.untilNs) {
+          stop = { reason: 'until', detail: `the next event (at ${formatDuration(t)}) is after --until ${formatDuration(opts.untilNs)}` };
+          return true;
+        }
+        return false;
+      },
+      after: (ev, d) => {
+        opts.onEvent?.(ev, d);
+        for (const bp of bps) {
+          let hit: string | undefined;
+          if (bp.kind === 'condition') {
+            const now = conditionHolds(engine.net, d, bp);
+            const was = held.get(bp.id)!;
+            held.set(bp.id, now.holds);
+            if (now.holds && !was) hit = `${bp.spec}${now.binding ? ` (${now.binding})` : ''}`;
+          } else hit = breakpointHit(engine.net, bp, undefined, d, ev);
+          if (hit) {
+            stop = { reason: 'breakpoint', detail: `breakpoint ${bp.id} at event ${ev.index}: ${hit}` };
+            hitBp = bp;
+            return true;
+          }
+        }
+        return false;
+      },
+    });
+    world = r.world;
+    opts.onBatch?.(world);
+    if (!stop && r.exhausted) {
+      const q = quiescence(world);
+      stop =
+        q === 'stall'
+          ? { reason: 'stall', detail: 'no event can happen, but nodes still hold pairs or messages' }
+          : { reason: 'idle', detail: 'nothing left to do and nothing held' };
+      const onStall = bps.find((b) => b.kind === 'stall');
+      if (q === 'stall' && onStall) hitBp = onStall;
+    }
+  }
+  const stall = stop.reason === 'stall' ? stallReport(engine.net, world) : null;
+  const expectations = checkExpectations(engine, world, opts.expectations ?? []);
+  return { world, stop, summary: summarize(engine.net, world, opts.seed, stop, expectations, stall), breakpoint: hitBp };
+}
+
+/** One line per expectation, for text output. */
+export function describeExpectations(results: readonly ExpectationResult[]): string[] {
+  return results.map((r) => `${r.ok ? 'ok  ' : 'FAIL'} ${r.expr}  (${formatValue(r.value)})`);
+}

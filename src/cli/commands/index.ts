@@ -2,5 +2,7 @@
 import type { CommandSpec } from '../spec.js';
 import { runCommand } from './run.js';
 import { replayCommand } from './replay.js';
+import { checkCommand } from './check.js';
+import { schemaCommand } from './schema.js';
 
-export const COMMANDS: CommandSpec[] = [runCommand, replayCommand];
+export const COMMANDS: CommandSpec[] = [runCommand, replayCommand, checkCommand, schemaCommand];

@@ -1,0 +1,128 @@
+/** The shape of a noise model (FORMAT.md §2) as zod schemas, for validation and JSON Schema alike. */
+import { z } from 'zod';
+import { NODE_ID_RE, LABEL_RE } from './schema-program.js';
+import { DURATION_PATTERN } from './units.js';
+import { count, describeValue, durationText, encodeIssue, humanErrorMap, keyed, lossText, obj, probability, speedText, word, type Mode } from './zod-kit.js';
+
+export const NOISE_FORMAT = 'bellstep/noise@1';
+/** A link id: two node ids joined by "~" (sortedness is checked separately, with a fix). */
+const LINK_ID_RE = /^[a-z][a-z0-9-]*~[a-z][a-z0-9-]*$/;
+
+type Prob = number;
+export interface RawLinkNoise {
+  readonly pair?: { readonly werner?: Prob; readonly bit_flip?: Prob; readonly bell_diagonal?: readonly [number, number, number, number] };
+  readonly success?:
+    | Prob
+    | { readonly scheme: 'double-click' | 'single-click'; readonly fiber_loss: string; readonly detector_efficiency: Prob; readonly bright_state?: Prob };
+  readonly attempt_period?: string;
+}
+export interface RawMemory {
+  readonly t1?: string;
+  readonly t2?: string;
+}
+export interface RawGateSpec {
+  readonly depolarizing?: Prob;
+  readonly flip?: Prob;
+  readonly duration?: string;
+}
+export interface RawGates {
+  readonly single?: RawGateSpec;
+  readonly two?: RawGateSpec;
+  readonly measure?: RawGateSpec;
+}
+export interface RawFaultBody {
+  readonly from?: string;
+  readonly to?: string;
+  readonly kind?: string;
+  readonly nth?: number;
+  readonly by?: string;
+}
+export interface RawNoise {
+  readonly format: string;
+  readonly seed: number;
+  readonly defaults?: {
+    readonly link?: RawLinkNoise;
+    readonly memory?: RawMemory;
+    readonly gates?: RawGates;
+    readonly classical?: { readonly speed?: string; readonly loss?: Prob; readonly extra_delay?: string };
+  };
+  readonly links?: Readonly<Record<string, RawLinkNoise>>;
+  readonly nodes?: Readonly<Record<string, { readonly memory?: RawMemory; readonly gates?: RawGates }>>;
+  readonly faults?: readonly Readonly<Record<'drop' | 'delay', RawFaultBody | undefined>>[];
+}
+
+function schemas(mode: Mode) {
+  const nodeId = () => word(NODE_ID_RE, 'a node id', '"mill"');
+  const pair = keyed(
+    mode,
+    'pair state',
+    {
+      werner: probability('Werner fidelity F: F Φ+ plus (1-F)/3 of each other Bell state'),
+      bit_flip: probability('Fidelity F of F Φ+ + (1-F) Ψ+'),
+      bell_diagonal: z.tuple([z.number(), z.number(), z.number(), z.number()]).describe('Bell coefficients in the order [Φ+, Φ−, Ψ+, Ψ−], summing to 1.'),
+    },
+    {},
+    'The state of a freshly generated pair.',
+  );
+  const derived = obj(
+    {
+      scheme: z.enum(['double-click', 'single-click']).describe('Heralding scheme.'),
+      fiber_loss: lossText(),
+      detector_efficiency: probability('Detector efficiency'),
+      bright_state: probability('Bright-state population (single-click only)').optional(),
+    },
+    'Success probability derived from the link length.',
+  );
+  const fixed = probability('Success probability per attempt');
+  // A number or a mapping: dispatch on the type so the message is about the intended form.
+  const success =
+    mode === 'json'
+      ? z.union([fixed, derived]).describe('Success probability per attempt, or how to derive it.')
+      : z.unknown().superRefine((v, ctx) => {
+          const schema = typeof v === 'object' && v !== null && !Array.isArray(v) ? derived : fixed;
+          const r = (schema as z.ZodType).safeParse(v, { error: humanErrorMap });
+          if (!r.success) for (const i of r.error.issues) ctx.addIssue({ code: 'custom', message: i.message, path: i.path, input: v });
+        });
+  const attemptRe = new RegExp(`^\\s*fiber\\s*$|${DURATION_PATTERN}`, 'u');
+  const attempt = z
+    .string({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}` })) })
+    .regex(attemptRe, { error: (iss) => encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}` }) })
+    .describe('Time between attempts: "fiber" (link length over the fiber speed) or a duration.');
+  const link = obj({ pair: pair.optional(), success: success.optional(), attempt_period: attempt.optional() }, 'Pair generation on a link.');
+  const memory = obj({ t1: durationText().optional(), t2: durationText().optional() }, 'Memory decay times; leave one out for no such decay.');
+  const gate = obj({ depolarizing: probability('Depolarizing probability').optional(), duration: durationText().optional() });
+  const readout = obj({ flip: probability('Readout flip probability').optional(), duration: durationText().optional() });
+  const gates = obj({ single: gate.optional(), two: gate.optional(), measure: readout.optional() }, 'Gate and measurement errors and durations.');
+  const classical = obj(
+    { speed: speedText().optional(), loss: probability('Message loss probability').optional(), extra_delay: durationText().optional() },
+    'Classical messages.',
+  );
+  const match = { from: nodeId().optional(), to: nodeId().optional(), kind: word(LABEL_RE, 'a message kind', '"bits"').optional() };
+  const fault = keyed(
+    mode,
+    'fault',
+    {
+      drop: obj({ ...match, nth: count('Which matching message to drop (1 = the first).') }, 'Drop the nth matching message.'),
+      delay: obj({ ...match, by: durationText() }, 'Delay matching messages.'),
+    },
+    {},
+    'A deterministic fault.',
+  );
+  const noise = obj(
+    {
+      format: z.literal(NOISE_FORMAT).describe(`Always "${NOISE_FORMAT}".`),
+      seed: z.int().min(0).describe('Seed of the random generator (the CLI\'s --seed overrides it).'),
+      defaults: obj({ link: link.optional(), memory: memory.optional(), gates: gates.optional(), classical: classical.optional() }).optional(),
+      links: z.record(mode === 'json' ? word(LINK_ID_RE, 'a link id', '"mill~quay"') : z.string(), link).describe('Per-link settings, keyed by link id (ends sorted, e.g. "mill~quay").').optional(),
+      nodes: z.record(mode === 'json' ? nodeId() : z.string(), obj({ memory: memory.optional(), gates: gates.optional() })).describe('Per-node settings, keyed by node id.').optional(),
+      faults: z.array(fault).describe('Deterministic fault injection.').optional(),
+    },
+    'A bellstep noise model: the physics and the seed.',
+  );
+  return { noise };
+}
+
+/** Schemas used to validate noise files. */
+export const noiseValidation = schemas('validate');
+/** Schemas published as JSON Schema. */
+export const noiseJson = schemas('json');

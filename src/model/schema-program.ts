@@ -1,0 +1,158 @@
+/**
+ * The shape of a program set (FORMAT.md §1) as zod schemas. They check structure only;
+ * meaning (references, bindings, units to integers) is checked while building the typed
+ * value. The same factory serves validation and the published JSON Schema.
+ */
+import { z } from 'zod';
+import { count, durationText, keyed, lengthText, obj, word, type Mode } from './zod-kit.js';
+
+/** Node ids: lower-case letters, digits and dashes, starting with a letter. */
+export const NODE_ID_RE = /^[a-z][a-z0-9-]*$/;
+/** Names bound by `as` and read in expressions. */
+export const BIND_NAME_RE = /^[A-Za-z_][A-Za-z0-9_]*$/;
+/** Stage names, message kinds and rule names. */
+export const LABEL_RE = /^[A-Za-z_][A-Za-z0-9_-]*$/;
+
+export const PROGRAM_SET_FORMAT = 'bellstep/program-set@1';
+export const GUARD_KINDS = ['have', 'got', 'check'] as const;
+export const STEP_KINDS = ['gate', 'measure', 'bell_measure', 'send', 'stage', 'note', 'correct', 'rebind', 'discard', 'deliver', 'if', 'log'] as const;
+
+/** The raw (validated, not yet typed) data of one guard or step: a one-key mapping. */
+export type RawItem = Readonly<Record<string, unknown>>;
+
+export interface RawRule {
+  readonly name: string;
+  readonly when: readonly RawItem[];
+  readonly do: readonly RawItem[];
+}
+export interface RawProgramSet {
+  readonly format: string;
+  readonly title?: string;
+  readonly nodes: readonly { readonly id: string; readonly qubits: number }[];
+  readonly links?: readonly { readonly ends: readonly [string, string]; readonly length: string; readonly slots: number }[];
+  readonly programs?: Readonly<Record<string, { readonly rules: readonly RawRule[] }>>;
+}
+
+function schemas(mode: Mode) {
+  const nodeId = () => word(NODE_ID_RE, 'a node id', '"mill" (lower-case letters, digits and "-")');
+  const bindName = () => word(BIND_NAME_RE, 'a name', '"left" (letters, digits and "_")');
+  const label = (what: string) => word(LABEL_RE, what, '"ready" (letters, digits, "_" and "-")');
+  const expr = (what: string) => z.string().describe(`${what}: an expression (node ids are predefined names).`);
+  const value = (what: string) =>
+    z.union([z.string(), z.number(), z.boolean()]).describe(`${what}: an expression, or a number or true/false.`);
+  const names = (what: string) => z.union([bindName(), z.array(bindName()).min(1)]).describe(`${what}: a name or a list of names.`);
+
+  const have = obj(
+    {
+      partner: expr('The node the pairs are shared with').optional(),
+      id: expr('The shared pair id to find (instead of partner)').optional(),
+      stage: label('a stage name').optional(),
+      count: count('How many pairs are needed (default 1).').optional(),
+      as: names('Names bound to the pairs, in pick order').optional(),
+      pick: z.enum(['oldest', 'newest']).describe('Which pairs to take first (default oldest).').optional(),
+      min_age: durationText().optional(),
+      max_age: durationText().optional(),
+    },
+    'Free pairs held with a partner (or the pair with a given id).',
+  );
+  const got = obj(
+    {
+      from: expr('The sending node (left out: any node)').optional(),
+      kind: label('a message kind'),
+      as: bindName().optional(),
+    },
+    'A message of this kind in the inbox.',
+  );
+  const guard = keyed(mode, 'guard', { have, got, check: value('A boolean condition') }, {}, 'A guard: have, got or check.');
+
+  const pairName = (what: string) => bindName().describe(`${what}: the name of a pair bound by a have guard.`);
+  // Steps nest through if/then/else, so the list refers back to the step schema lazily.
+  const stepList = (): z.ZodType => z.array(z.lazy(() => step));
+  const gate = obj({
+    op: z.enum(['x', 'y', 'z', 'h', 's', 'sdg', 't', 'rx', 'ry', 'rz', 'cnot', 'cz', 'swap']).describe('The gate.'),
+    on: z.union([pairName('The qubit'), z.array(pairName('A qubit')).min(1).max(2)]).describe('A pair name, or [control, target] for two-qubit gates.'),
+    angle: value('Rotation angle in radians (rx, ry, rz only)').optional(),
+  });
+  const measure = obj({
+    on: pairName('The pair to measure'),
+    basis: z.enum(['z', 'x', 'y']).describe('Measurement basis (default z).').optional(),
+    as: bindName().optional(),
+  });
+  const bellMeasure = obj({
+    on: z.tuple([pairName('First pair'), pairName('Second pair')]).describe('The two local halves to measure.'),
+    as: z.tuple([bindName(), bindName()]).describe('Names for [Z bit, X bit].'),
+  });
+  const dataMap = (what: string) => z.record(z.string(), value('A value')).describe(what);
+  const send = obj({
+    to: expr('The destination node'),
+    kind: label('a message kind'),
+    pair: value('The shared pair id the message is about').optional(),
+    data: dataMap('Named values carried by the message.').optional(),
+  });
+  const stage = obj({ pair: pairName('The pair'), to: label('a stage name') });
+  const note = obj({ pair: pairName('The pair'), set: dataMap('Values stored on the pair record.') });
+  const correct = obj({ pair: pairName('The pair'), x: value('1 to apply X').optional(), z: value('1 to apply Z').optional() });
+  const rebind = obj({ pair: pairName('The pair'), partner: expr('The new partner').optional(), id: value('The new shared id').optional() });
+  const ifStep = obj({
+    if: value('The condition'),
+    then: stepList().describe('Steps run when the condition holds.'),
+    else: stepList().describe('Steps run otherwise.').optional(),
+  });
+  const step: z.ZodType = keyed(
+    mode,
+    'step',
+    {
+      gate,
+      measure,
+      bell_measure: bellMeasure,
+      send,
+      stage,
+      note,
+      correct,
+      rebind,
+      discard: pairName('The pair to free'),
+      deliver: pairName('The pair to hand to the application'),
+      log: z.string().describe('Text for the event log; {expr} holes are filled in.'),
+    },
+    { if: ifStep },
+    'A step of a rule body.',
+  );
+
+  const rule = obj(
+    {
+      name: label('a rule name'),
+      when: z.array(guard).min(1).describe('Guards that must all hold (at least one).'),
+      do: z.array(step).describe('Steps run atomically when the rule fires.'),
+    },
+    'A guarded rule.',
+  );
+  const programSet = obj(
+    {
+      format: z.literal(PROGRAM_SET_FORMAT).describe(`Always "${PROGRAM_SET_FORMAT}".`),
+      title: z.string().describe('A short human title.').optional(),
+      nodes: z.array(obj({ id: nodeId(), qubits: count('Memory qubits at this node.') })).min(1).describe('The sites of the network.'),
+      links: z
+        .array(
+          obj({
+            ends: z.tuple([nodeId(), nodeId()]).describe('The two node ids the fiber joins.'),
+            length: lengthText(),
+            slots: count("Qubits at each end reserved for this link's pair generation."),
+          }),
+        )
+        .describe('Fiber links that generate Bell pairs.')
+        .optional(),
+      programs: z
+        // Keys are checked against the declared nodes after validation, with a did-you-mean.
+        .record(mode === 'json' ? nodeId() : z.string(), obj({ rules: z.array(rule).describe('Tried in order after every event that touches the node.') }))
+        .describe('The rules each node runs, keyed by node id.')
+        .optional(),
+    },
+    'A bellstep program set: the network and the rules its nodes run.',
+  );
+  return { programSet, guard, step };
+}
+
+/** Schemas used to validate files (one-key mappings dispatch on their key). */
+export const programValidation = schemas('validate');
+/** Schemas published as JSON Schema (one-key mappings as unions). */
+export const programJson = schemas('json');

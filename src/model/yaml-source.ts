@@ -1,0 +1,180 @@
+/**
+ * A parsed YAML file that still knows where everything came from: values are read from
+ * plain JavaScript, positions from the YAML syntax tree, both addressed by the same path.
+ */
+import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type Scalar } from 'yaml';
+import { InputError, InputErrors } from './errors.js';
+import type { SourcePos } from './types.js';
+
+/** One step of a path into a YAML value: a mapping key or a list index. */
+export type PathPart = string | number;
+export type Path = readonly PathPart[];
+
+/** Keys that could reach JavaScript object internals if they ever became property names. */
+const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+/** Dotted field name for messages, e.g. `programs.mill.rules[1].when[0].got.kind`. */
+export function fieldName(path: Path): string {
+  let out = '';
+  for (const part of path) {
+    if (typeof part === 'number') out += `[${part}]`;
+    else out += out ? `.${part}` : part;
+  }
+  return out;
+}
+
+const YAML_FIXES: Partial<Record<string, string>> = {
+  DUPLICATE_KEY: 'each key may appear once in a mapping; remove or rename one of them',
+  TAB_AS_INDENT: 'YAML is indented with spaces, never tabs',
+  BAD_INDENT: 'line the entries of a list or mapping up at the same indentation',
+  MULTIPLE_DOCS: 'keep one document per file (remove the extra "---")',
+  MISSING_CHAR: 'close the bracket, brace or quote that was opened',
+};
+
+/** A YAML document with its line index and its value as plain data. */
+export class SourceDoc {
+  private constructor(
+    readonly file: string,
+    readonly text: string,
+    readonly doc: Document.Parsed,
+    private readonly lines: LineCounter,
+    /** The document as plain data (mappings as objects, lists as arrays). */
+    readonly value: unknown,
+  ) {}
+
+  /** Parses `text`; YAML syntax errors, an empty file, a non-mapping top level and forbidden keys throw. */
+  static parse(file: string, text: string): SourceDoc {
+    const lines = new LineCounter();
+    const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true, version: '1.2' });
+    const at = (offset: number): SourcePos => ({ file, ...lines.linePos(offset) });
+    const problems = [...doc.errors, ...doc.warnings];
+    if (problems.length > 0) {
+      throw new InputErrors(
+        problems.map((e) => {
+          const key = e.code === 'DUPLICATE_KEY' ? text.slice(e.pos[0], e.pos[1]).trim() : '';
+          const message = e.code === 'DUPLICATE_KEY' && key ? `duplicate key "${key}"` : `YAML: ${e.message}`;
+          return InputError.at(at(e.pos[0]), {
+            code: e.code === 'DUPLICATE_KEY' ? 'duplicate' : 'yaml',
+            message,
+            fix: YAML_FIXES[e.code] ?? 'check the YAML syntax here (indentation, quotes, brackets, a missing ":")',
+          });
+        }),
+      );
+    }
+    if (doc.contents === null || (isScalar(doc.contents) && doc.contents.value === null)) {
+      throw new InputErrors([
+        new InputError({ code: 'format', file, line: 1, col: 1, message: 'the file is empty', fix: 'start the file with its "format:" line' }),
+      ]);
+    }
+    if (!isMap(doc.contents)) {
+      const got = isSeq(doc.contents) ? 'a list' : 'a single value';
+      throw new InputErrors([
+        InputError.at(at(doc.contents.range?.[0] ?? 0), {
+          code: 'format',
+          message: `expected a mapping of keys (format, ...) at the top of the file, got ${got}`,
+          fix: 'write the file as "key: value" lines starting with "format:"',
+        }),
+      ]);
+    }
+    SourceDoc.refuseForbiddenKeys(doc, at);
+    let value: unknown;
+    try {
+      value = doc.toJS({ maxAliasCount: 100 });
+    } catch (err) {
+      throw new InputErrors([
+        new InputError({
+          code: 'yaml',
+          file,
+          line: 1,
+          col: 1,
+          message: `YAML: ${err instanceof Error ? err.message : String(err)}`,
+          fix: 'use fewer aliases (*name); write the values out instead',
+        }),
+      ]);
+    }
+    return new SourceDoc(file, text, doc, lines, value);
+  }
+
+  private static refuseForbiddenKeys(doc: Document.Parsed, at: (offset: number) => SourcePos): void {
+    const errors: InputError[] = [];
+    visit(doc, {
+      Pair(_, pair) {
+        const key = pair.key;
+        if (isScalar(key) && FORBIDDEN_KEYS.has(String(key.value))) {
+          errors.push(
+            InputError.at(at(key.range?.[0] ?? 0), {
+              code: 'schema',
+              message: `the key "${String(key.value)}" is not allowed`,
+              fix: 'rename or remove it: bellstep refuses keys that name JavaScript object internals',
+            }),
+          );
+        } else if (key !== null && !isScalar(key)) {
+          errors.push(
+            InputError.at(at((key as Node).range?.[0] ?? 0), {
+              code: 'schema',
+              message: 'a mapping key must be a plain word, not a list or mapping',
+              fix: 'write the key as a name',
+            }),
+          );
+        }
+      },
+    });
+    if (errors.length > 0) throw new InputErrors(errors);
+  }
+
+  /** The position of an offset into the text. */
+  at(offset: number): SourcePos {
+    return { file: this.file, ...this.lines.linePos(offset) };
+  }
+
+  /** The deepest syntax node along `path`, and whether the whole path was found. */
+  nodeAt(path: Path): { node: Node; exact: boolean } {
+    let node = this.doc.contents as Node;
+    for (const part of path) {
+      let next: Node | undefined;
+      if (isMap(node)) {
+        const pair = node.items.find((p) => isPair(p) && isScalar(p.key) && String(p.key.value) === String(part));
+        // A key with no value ("name:") has no value node: point at the key.
+        if (pair) next = (pair.value as Node | null) ?? (pair.key as Node);
+      } else if (isSeq(node) && typeof part === 'number') {
+        next = (node.items[part] as Node | undefined) ?? undefined;
+      }
+      if (!next) return { node, exact: false };
+      node = next;
+    }
+    return { node, exact: true };
+  }
+
+  /** Where the value at `path` starts (or its nearest existing parent, when it is missing). */
+  posAt(path: Path): SourcePos {
+    return this.at(this.nodeAt(path).node.range?.[0] ?? 0);
+  }
+
+  /** Where the key `key` of the mapping at `path` starts. */
+  keyPosAt(path: Path, key: string): SourcePos {
+    const { node, exact } = this.nodeAt(path);
+    if (exact && isMap(node)) {
+      const pair = node.items.find((p) => isScalar(p.key) && String(p.key.value) === key);
+      const k = pair?.key as Node | undefined;
+      if (k?.range) return this.at(k.range[0]);
+    }
+    return this.at(node.range?.[0] ?? 0);
+  }
+
+  /** Where the text of the string at `path` begins, past an opening quote or a block indicator. */
+  textStartAt(path: Path): SourcePos {
+    const { node, exact } = this.nodeAt(path);
+    const start = node.range?.[0] ?? 0;
+    if (!exact || !isScalar(node)) return this.at(start);
+    const type = (node as Scalar).type;
+    if (type === 'QUOTE_DOUBLE' || type === 'QUOTE_SINGLE') return this.at(start + 1);
+    if (type === 'BLOCK_LITERAL' || type === 'BLOCK_FOLDED') {
+      const eol = this.text.indexOf('\n', start);
+      if (eol < 0) return this.at(start);
+      let i = eol + 1;
+      while (this.text[i] === ' ') i++;
+      return this.at(i);
+    }
+    return this.at(start);
+  }
+}

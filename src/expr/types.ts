@@ -35,6 +35,12 @@ export interface Compiled {
   readonly calls: readonly string[];
 }
 
+/** A log line split into literal text and `{expr}` holes (see `parseTemplate`). */
+export interface Template {
+  /** Literal text (braces already unescaped) and compiled holes, in order. */
+  readonly parts: (string | Compiled)[];
+}
+
 /** A function callable from expressions. Throw `ExprEvalError`-style messages as plain Error; the evaluator adds the position. */
 export type ExprFunction = (args: readonly Value[]) => Value;
 
@@ -42,6 +48,8 @@ export type ExprFunction = (args: readonly Value[]) => Value;
 export interface Scope {
   /** Value of a name, or undefined when the name is not bound. */
   lookup(name: string): Value | undefined;
-  /** Functions callable by name; only own properties are consulted. */
+  /** Functions callable by name; only own properties are consulted. Treat a table as unchanging once used: calls cache their lookup per table. */
   readonly functions: Readonly<Record<string, ExprFunction>>;
+  /** Names this scope can bind, used only to suggest a fix for an unknown name. */
+  listNames?(): Iterable<string>;
 }

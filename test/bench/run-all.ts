@@ -3,6 +3,7 @@ import { printLines, type BenchLine } from './harness.js';
 
 const modules: Record<string, () => Promise<{ default: () => Promise<BenchLine[]> }>> = {
   'quantum kernel vs mathjs': () => import('./kernel.bench.js'),
+  'expression evaluation': () => import('./expr.bench.js'),
 };
 
 const only = process.argv[2];

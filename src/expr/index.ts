@@ -1,0 +1,11 @@
+/** The expression language of bellstep: parse once, evaluate safely (FORMAT.md §1 "Expressions"). */
+export type { Compiled, ExprFunction, ExprNode, Scope, Template, Value, ValueRecord } from './types.js';
+export { ExprError } from './errors.js';
+export { parseExpr, MAX_DEPTH } from './parser.js';
+export { compileExpr } from './compile.js';
+export { evaluate } from './evaluate.js';
+export { parseTemplate } from './template.js';
+export { baseFunctions } from './functions.js';
+export { makeScope } from './scope.js';
+export { formatValue, valuesEqual } from './values.js';
+export { closest } from './suggest.js';

@@ -1,0 +1,100 @@
+/**
+ * Unitary gates as U ρ U†. Each gate is one of three shapes: an index permutation
+ * (x, cnot, swap), a diagonal phase (z, s, sdg, t, rz, cz), or a 2×2 kernel on the
+ * affected blocks (h, y, rx, ry).
+ */
+import { czInPlace, flipInPlace, involutionInPlace, permutationScratch, phase1InPlace, unitary1InPlace } from './blocks.js';
+import { H, rx, ry, Y } from './mat2.js';
+import { checkDistinct, clone, dimOf, maskOf, type Rho } from './rho.js';
+
+/** Gate names of FORMAT.md's `gate` step. */
+export type GateName = 'x' | 'y' | 'z' | 'h' | 's' | 'sdg' | 't' | 'rx' | 'ry' | 'rz' | 'cnot' | 'cz' | 'swap';
+
+const ARITY: Readonly<Record<GateName, 1 | 2>> = {
+  x: 1, y: 1, z: 1, h: 1, s: 1, sdg: 1, t: 1, rx: 1, ry: 1, rz: 1, cnot: 2, cz: 2, swap: 2,
+};
+
+const ROTATIONS: ReadonlySet<GateName> = new Set(['rx', 'ry', 'rz']);
+
+/** Every gate name, in a stable order. */
+export const GATE_NAMES: readonly GateName[] = Object.keys(ARITY) as GateName[];
+
+/** Whether a string names a gate. */
+export function isGateName(name: string): name is GateName {
+  return Object.prototype.hasOwnProperty.call(ARITY, name);
+}
+
+/** Applies a gate to the given qubits (for cnot: [control, target]) and returns the new state. */
+export function applyGate(rho: Rho, gate: GateName, qubits: readonly number[], angle?: number): Rho {
+  const out = clone(rho);
+  applyGateInPlace(out.data, out.n, gate, qubits, angle);
+  return out;
+}
+
+/** The in-place form of `applyGate`, for callers that have already copied. */
+export function applyGateInPlace(
+  d: Float64Array,
+  n: number,
+  gate: GateName,
+  qubits: readonly number[],
+  angle?: number,
+): void {
+  if (!isGateName(gate)) {
+    throw new Error(`unknown gate "${String(gate)}"; known gates: ${GATE_NAMES.join(' ')}`);
+  }
+  const arity = ARITY[gate];
+  if (qubits.length !== arity) {
+    throw new Error(`gate ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'}, got ${qubits.length}`);
+  }
+  checkDistinct(n, qubits);
+  if (ROTATIONS.has(gate) && (angle === undefined || !Number.isFinite(angle))) {
+    throw new Error(`gate ${gate} needs a finite angle in radians, got ${String(angle)}`);
+  }
+  const theta = angle ?? 0;
+  const [a, b] = qubits;
+  switch (gate) {
+    case 'x':
+      return flipInPlace(d, n, a);
+    case 'cnot':
+      return involutionInPlace(d, n, cnotPermutation(n, a, b));
+    case 'swap':
+      return involutionInPlace(d, n, swapPermutation(n, a, b));
+    // One-qubit diagonal gates diag(φ0, φ1) only need f = φ0·conj(φ1), the global phase drops out.
+    case 'z':
+      return phase1InPlace(d, n, a, -1, 0);
+    case 's':
+      return phase1InPlace(d, n, a, 0, -1);
+    case 'sdg':
+      return phase1InPlace(d, n, a, 0, 1);
+    case 't':
+      return phase1InPlace(d, n, a, Math.SQRT1_2, -Math.SQRT1_2);
+    case 'rz':
+      return phase1InPlace(d, n, a, Math.cos(theta), -Math.sin(theta));
+    case 'cz':
+      return czInPlace(d, n, maskOf(n, a) | maskOf(n, b));
+    case 'h':
+      return unitary1InPlace(d, n, a, H);
+    case 'y':
+      return unitary1InPlace(d, n, a, Y);
+    case 'rx':
+      return unitary1InPlace(d, n, a, rx(theta));
+    case 'ry':
+      return unitary1InPlace(d, n, a, ry(theta));
+  }
+}
+
+function cnotPermutation(n: number, control: number, target: number): Int32Array {
+  const mc = maskOf(n, control);
+  const mt = maskOf(n, target);
+  const p = permutationScratch(n);
+  for (let r = 0; r < dimOf(n); r++) p[r] = r & mc ? r ^ mt : r;
+  return p;
+}
+
+function swapPermutation(n: number, a: number, b: number): Int32Array {
+  const ma = maskOf(n, a);
+  const mb = maskOf(n, b);
+  const p = permutationScratch(n);
+  for (let r = 0; r < dimOf(n); r++) p[r] = !(r & ma) !== !(r & mb) ? r ^ ma ^ mb : r;
+  return p;
+}

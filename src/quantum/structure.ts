@@ -1,0 +1,112 @@
+/**
+ * Merging and splitting clusters: tensor products, partial traces and qubit reordering.
+ */
+import { checkDistinct, ClusterTooLargeError, dimOf, maskOf, MAX_CLUSTER_QUBITS, type Rho } from './rho.js';
+
+/** a ⊗ b, with the qubits of a first; throws ClusterTooLargeError above maxQubits. */
+export function tensor(a: Rho, b: Rho, maxQubits: number = MAX_CLUSTER_QUBITS): Rho {
+  const n = a.n + b.n;
+  if (n > maxQubits) throw new ClusterTooLargeError(n, maxQubits);
+  const da = dimOf(a.n);
+  const db = dimOf(b.n);
+  const dim = da * db;
+  const out = new Float64Array(2 * dim * dim);
+  const x = a.data;
+  const y = b.data;
+  for (let ra = 0; ra < da; ra++) {
+    for (let ca = 0; ca < da; ca++) {
+      const ia = 2 * (ra * da + ca);
+      const xr = x[ia];
+      const xi = x[ia + 1];
+      if (xr === 0 && xi === 0) continue;
+      for (let rb = 0; rb < db; rb++) {
+        const rowOut = 2 * ((ra * db + rb) * dim + ca * db);
+        const rowB = 2 * rb * db;
+        for (let cb = 0; cb < db; cb++) {
+          const yr = y[rowB + 2 * cb];
+          const yi = y[rowB + 2 * cb + 1];
+          out[rowOut + 2 * cb] = xr * yr - xi * yi;
+          out[rowOut + 2 * cb + 1] = xr * yi + xi * yr;
+        }
+      }
+    }
+  }
+  return { n, data: out };
+}
+
+/**
+ * The reduced state of the listed qubits, in the listed order (all others traced out).
+ * With every qubit listed this is a pure reordering, and the input itself when nothing moves.
+ */
+export function keepQubits(rho: Rho, keep: readonly number[]): Rho {
+  const n = rho.n;
+  checkDistinct(n, keep);
+  // Keeping every qubit in place is the common case of a pair alone in its cluster.
+  if (keep.length === n && isIdentity(keep)) return rho;
+  const rest: number[] = [];
+  for (let q = 0; q < n; q++) if (keep.indexOf(q) < 0) rest.push(q);
+  const keepIdx = spread(n, keep);
+  const restIdx = spread(n, rest);
+  const dimIn = dimOf(n);
+  const m = keep.length;
+  const dimOut = dimOf(m);
+  const src = rho.data;
+  const out = new Float64Array(2 * dimOut * dimOut);
+  for (let r = 0; r < dimOut; r++) {
+    const rOld = keepIdx[r];
+    for (let c = 0; c < dimOut; c++) {
+      const cOld = keepIdx[c];
+      let re = 0;
+      let im = 0;
+      for (let j = 0; j < restIdx.length; j++) {
+        const k = restIdx[j];
+        const i = 2 * ((rOld + k) * dimIn + cOld + k);
+        re += src[i];
+        im += src[i + 1];
+      }
+      out[2 * (r * dimOut + c)] = re;
+      out[2 * (r * dimOut + c) + 1] = im;
+    }
+  }
+  return { n: m, data: out };
+}
+
+function isIdentity(order: readonly number[]): boolean {
+  for (let i = 0; i < order.length; i++) if (order[i] !== i) return false;
+  return true;
+}
+
+/** For each index j over the listed qubits (first listed = most significant), the old index with those bits set. */
+function spread(n: number, qubits: readonly number[]): Int32Array {
+  const m = qubits.length;
+  const out = new Int32Array(dimOf(m));
+  for (let j = 0; j < out.length; j++) {
+    let old = 0;
+    for (let i = 0; i < m; i++) if (j & (1 << (m - 1 - i))) old |= maskOf(n, qubits[i]);
+    out[j] = old;
+  }
+  return out;
+}
+
+/** Traces out qubit q; the remaining qubits keep their relative order. */
+export function partialTrace(rho: Rho, q: number): Rho {
+  const keep: number[] = [];
+  for (let k = 0; k < rho.n; k++) if (k !== q) keep.push(k);
+  if (keep.length === rho.n) {
+    throw new Error(`qubit index ${String(q)} is out of range for a ${rho.n}-qubit state (valid: 0..${rho.n - 1})`);
+  }
+  return keepQubits(rho, keep);
+}
+
+/** Reorders qubits: new qubit i is old qubit order[i]. */
+export function permuteQubits(rho: Rho, order: readonly number[]): Rho {
+  if (order.length !== rho.n) {
+    throw new Error(`permuteQubits needs an order of all ${rho.n} qubits, got [${order.join(', ')}]`);
+  }
+  return keepQubits(rho, order);
+}
+
+/** The two-qubit state of qubits (qa, qb), in that order, with every other qubit traced out. */
+export function reducedPair(rho: Rho, qa: number, qb: number): Rho {
+  return keepQubits(rho, [qa, qb]);
+}

@@ -4,7 +4,7 @@
  * value. The same factory serves validation and the published JSON Schema.
  */
 import { z } from 'zod';
-import { count, durationText, keyed, lengthText, obj, word, type Mode } from './zod-kit.js';
+import { count, durationText, encodeIssue, keyed, lengthText, obj, word, type Mode } from './zod-kit.js';
 
 /** Node ids: lower-case letters, digits and dashes, starting with a letter. */
 export const NODE_ID_RE = /^[a-z][a-z0-9-]*$/;
@@ -121,7 +121,13 @@ function schemas(mode: Mode) {
   const rule = obj(
     {
       name: label('a rule name'),
-      when: z.array(guard).min(1).describe('Guards that must all hold (at least one).'),
+      when: z
+        .array(guard)
+        .min(1, {
+          error: () =>
+            encodeIssue({ m: 'a rule needs at least one guard (one with none would fire forever)', f: 'add a guard under "when:", e.g. "- have: {partner: mill, as: p}"' }),
+        })
+        .describe('Guards that must all hold (at least one).'),
       do: z.array(step).describe('Steps run atomically when the rule fires.'),
     },
     'A guarded rule.',

@@ -31,6 +31,12 @@ const YAML_FIXES: Partial<Record<string, string>> = {
   MISSING_CHAR: 'close the bracket, brace or quote that was opened',
 };
 
+/** The mapping key written at `offset` (yaml reports only its first character). */
+function keyText(text: string, offset: number): string {
+  const m = /^(?:"((?:[^"\\]|\\.)*)"|'([^']*)'|([^:\n,{}]+))/.exec(text.slice(offset));
+  return (m?.[1] ?? m?.[2] ?? m?.[3] ?? '').trim();
+}
+
 /** A YAML document with its line index and its value as plain data. */
 export class SourceDoc {
   private constructor(
@@ -51,7 +57,7 @@ export class SourceDoc {
     if (problems.length > 0) {
       throw new InputErrors(
         problems.map((e) => {
-          const key = e.code === 'DUPLICATE_KEY' ? text.slice(e.pos[0], e.pos[1]).trim() : '';
+          const key = e.code === 'DUPLICATE_KEY' ? keyText(text, e.pos[0]) : '';
           const message = e.code === 'DUPLICATE_KEY' && key ? `duplicate key "${key}"` : `YAML: ${e.message}`;
           return InputError.at(at(e.pos[0]), {
             code: e.code === 'DUPLICATE_KEY' ? 'duplicate' : 'yaml',

@@ -51,6 +51,8 @@ export interface RawNoise {
   readonly faults?: readonly Readonly<Record<'drop' | 'delay', RawFaultBody | undefined>>[];
 }
 
+const ATTEMPT_FIX = 'write "fiber" (link length over the fiber speed) or a duration with a unit, e.g. "10 us"';
+
 function schemas(mode: Mode) {
   const nodeId = () => word(NODE_ID_RE, 'a node id', '"mill"');
   const pair = keyed(
@@ -85,8 +87,8 @@ function schemas(mode: Mode) {
         });
   const attemptRe = new RegExp(`^\\s*fiber\\s*$|${DURATION_PATTERN}`, 'u');
   const attempt = z
-    .string({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}` })) })
-    .regex(attemptRe, { error: (iss) => encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}` }) })
+    .string({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}`, f: ATTEMPT_FIX })) })
+    .regex(attemptRe, { error: (iss) => encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}`, f: ATTEMPT_FIX }) })
     .describe('Time between attempts: "fiber" (link length over the fiber speed) or a duration.');
   const link = obj({ pair: pair.optional(), success: success.optional(), attempt_period: attempt.optional() }, 'Pair generation on a link.');
   const memory = obj({ t1: durationText().optional(), t2: durationText().optional() }, 'Memory decay times; leave one out for no such decay.');

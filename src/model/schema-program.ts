@@ -70,7 +70,7 @@ function schemas(mode: Mode) {
   const stepList = (): z.ZodType => z.array(z.lazy(() => step));
   const gate = obj({
     op: z.enum(['x', 'y', 'z', 'h', 's', 'sdg', 't', 'rx', 'ry', 'rz', 'cnot', 'cz', 'swap']).describe('The gate.'),
-    on: z.union([pairName('The qubit'), z.array(pairName('A qubit')).min(1).max(2)]).describe('A pair name, or [control, target] for two-qubit gates.'),
+    on: z.union([pairName('The qubit'), z.array(pairName('A qubit')).min(1)]).describe('A pair name, or [control, target] for two-qubit gates.'),
     angle: value('Rotation angle in radians (rx, ry, rz only)').optional(),
   });
   const measure = obj({

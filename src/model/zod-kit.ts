@@ -60,6 +60,15 @@ function descriptionOf(schema: unknown): string | undefined {
   return undefined;
 }
 
+function lowerNoDot(text: string): string {
+  return `${text[0].toLowerCase()}${text.slice(1)}`.replace(/\.$/, '');
+}
+
+/** A fix sentence: what to write, plus what the field is for when the schema says so. */
+function fixFor(what: string, description: string | undefined): string {
+  return description ? `${what} (this field: ${lowerNoDot(description)})` : what;
+}
+
 /** The error map used for every validation in model/. */
 export const humanErrorMap: z.core.$ZodErrorMap = (iss) => {
   const input = iss.input;
@@ -68,27 +77,27 @@ export const humanErrorMap: z.core.$ZodErrorMap = (iss) => {
     case 'invalid_type': {
       if (input === undefined) return encodeIssue({ m: 'missing', missing: true, f: description });
       const want = EXPECTED_WORDS[iss.expected] ?? iss.expected;
-      return encodeIssue({ m: `expected ${want}, got ${describeValue(input)}`, f: description && `write ${description[0].toLowerCase()}${description.slice(1)}` });
+      return encodeIssue({ m: `expected ${want}, got ${describeValue(input)}`, f: fixFor(`write ${want} here`, description) });
     }
     case 'too_small': {
       if (iss.origin === 'array') {
         const n = Number(iss.minimum);
-        return encodeIssue({ m: `needs at least ${n} ${n === 1 ? 'entry' : 'entries'}, got ${Array.isArray(input) ? input.length : 0}` });
+        return encodeIssue({ m: `needs at least ${n} ${n === 1 ? 'entry' : 'entries'}, got ${Array.isArray(input) ? input.length : 0}`, f: fixFor(`give at least ${n}`, description) });
       }
-      if (iss.origin === 'string') return encodeIssue({ m: 'must not be empty' });
+      if (iss.origin === 'string') return encodeIssue({ m: 'must not be empty', f: fixFor('write some text', description) });
       const bound = iss.inclusive === false ? `greater than ${iss.minimum}` : `at least ${iss.minimum}`;
-      return encodeIssue({ m: `must be ${bound}, got ${describeValue(input)}` });
+      return encodeIssue({ m: `must be ${bound}, got ${describeValue(input)}`, f: fixFor(`use a value ${bound}`, description) });
     }
     case 'too_big': {
-      if (iss.origin === 'array') return encodeIssue({ m: `allows at most ${iss.maximum} entries` });
+      if (iss.origin === 'array') return encodeIssue({ m: `allows at most ${iss.maximum} entries`, f: fixFor(`give at most ${iss.maximum}`, description) });
       const bound = iss.inclusive === false ? `less than ${iss.maximum}` : `at most ${iss.maximum}`;
-      return encodeIssue({ m: `must be ${bound}, got ${describeValue(input)}` });
+      return encodeIssue({ m: `must be ${bound}, got ${describeValue(input)}`, f: fixFor(`use a value ${bound}`, description) });
     }
     case 'invalid_value': {
       const allowed = iss.values.map(String);
-      if (allowed.length === 1) return encodeIssue({ m: `expected "${allowed[0]}", got ${describeValue(input)}` });
+      if (allowed.length === 1) return encodeIssue({ m: `expected "${allowed[0]}", got ${describeValue(input)}`, f: `write "${allowed[0]}"` });
       const near = typeof input === 'string' ? didYouMean(input, allowed) : '';
-      return encodeIssue({ m: `expected one of ${listWords(allowed)}, got ${describeValue(input)}${near}` });
+      return encodeIssue({ m: `expected one of ${listWords(allowed)}, got ${describeValue(input)}${near}`, f: fixFor(`write one of ${listWords(allowed)}`, description) });
     }
     case 'unrecognized_keys': {
       const owner = iss.inst as unknown as { _zod?: { def?: { shape?: Record<string, unknown> } } };
@@ -102,9 +111,8 @@ export const humanErrorMap: z.core.$ZodErrorMap = (iss) => {
       return encodeIssue({ m, k: first, f: allowed.length ? `the fields allowed here are ${listWords(allowed)}` : 'remove it' });
     }
     case 'invalid_format':
-      return encodeIssue({ m: `${describeValue(input)} is not valid here`, f: description });
     case 'invalid_union':
-      return encodeIssue({ m: `${describeValue(input)} is not valid here`, f: description });
+      return encodeIssue({ m: `${describeValue(input)} is not valid here`, f: description ? `expected: ${lowerNoDot(description)}` : 'see "bellstep schema" for the expected shape' });
     default:
       return undefined;
   }
@@ -131,12 +139,14 @@ export const speedText = () => patterned(SPEED_PATTERN, 'a speed', '200000 km/s'
 /** A fiber attenuation such as "0.2 dB/km". */
 export const lossText = () => patterned(LOSS_PATTERN, 'a fiber loss', '0.2 dB/km', 'Fiber attenuation in dB/km, e.g. "0.2 dB/km".');
 
+const PROBABILITY_FIX = 'write a number from 0 to 1, e.g. 0.95';
+
 /** A probability in [0, 1]. */
 export const probability = (what = 'A probability') =>
   z
-    .number({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected a probability between 0 and 1, got ${describeValue(iss.input)}` })) })
-    .min(0, { error: (iss) => encodeIssue({ m: `a probability must be between 0 and 1, got ${describeValue(iss.input)}` }) })
-    .max(1, { error: (iss) => encodeIssue({ m: `a probability must be between 0 and 1, got ${describeValue(iss.input)}` }) })
+    .number({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected a probability between 0 and 1, got ${describeValue(iss.input)}`, f: PROBABILITY_FIX })) })
+    .min(0, { error: (iss) => encodeIssue({ m: `a probability must be between 0 and 1, got ${describeValue(iss.input)}`, f: PROBABILITY_FIX }) })
+    .max(1, { error: (iss) => encodeIssue({ m: `a probability must be between 0 and 1, got ${describeValue(iss.input)}`, f: PROBABILITY_FIX }) })
     .describe(`${what}, between 0 and 1.`);
 
 /** A name matching `re`, described for messages. */
@@ -150,8 +160,8 @@ export function word(re: RegExp, what: string, example: string) {
 /** A positive whole number. */
 export const count = (what: string) =>
   z
-    .int({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected a whole number, got ${describeValue(iss.input)}` })) })
-    .min(1, { error: (iss) => encodeIssue({ m: `must be at least 1, got ${describeValue(iss.input)}` }) })
+    .int({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected a whole number, got ${describeValue(iss.input)}`, f: fixFor('write a whole number of at least 1', what) })) })
+    .min(1, { error: (iss) => encodeIssue({ m: `must be at least 1, got ${describeValue(iss.input)}`, f: fixFor('write a whole number of at least 1', what) }) })
     .describe(what);
 
 /** A strict mapping (unknown keys are errors with a did-you-mean). */

@@ -45,6 +45,6 @@ export function joinIds(a: string, b: string): string {
 
 /** The short form shown in narrow panes: `#3+4` for `quay~ridge#3+4`. */
 export function shortPairId(id: string): string {
-  const p = parsePairId(id);
-  return p ? `#${p.tag}` : id;
+  const hash = id.indexOf('#');
+  return hash > 0 && id.indexOf('~') > 0 && id.indexOf('~') < hash ? id.slice(hash) : id;
 }

@@ -56,6 +56,8 @@ export class Net {
   /** Fiber speed (m/s), used for heralds and classical messages alike. */
   readonly speed: number;
   private readonly distCache = new Map<string, Map<string, number>>();
+  /** One reusable expression scope per node for the rule interpreter (a cache, not state). */
+  readonly scopes = new Map<string, unknown>();
 
   constructor(programSet: ProgramSet, noise: NoiseModel) {
     this.programSet = programSet;

@@ -37,7 +37,11 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
   const rules = net.rules.get(node);
   if (!rules || rules.length === 0) return;
   const state = w.nodes[node];
-  const scope = new RuleScope(net, w, node, new Bindings());
+  let scope = net.scopes.get(node) as RuleScope | undefined;
+  if (!scope) {
+    scope = new RuleScope(net, w, node, new Bindings());
+    net.scopes.set(node, scope);
+  } else scope.reset(w);
   const ctx: MatchContext = { w, node, scope, nodeIds: net.nodeSet };
   let fires = 0;
   let last: Rule | undefined;
@@ -62,7 +66,7 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
     // consume the matched messages before the body runs, so it cannot match them again
     const used = scope.bindings.usedMessages;
     if (used.size > 0) state.inbox = state.inbox.filter((m) => !used.has(m.id));
-    runSteps({ ...ctx, net, rule, ev, fire }, rule.do);
+    runSteps({ w, node, scope, nodeIds: net.nodeSet, net, rule, ev, fire }, rule.do);
     ev.fires.push(fire);
     const byNode = (w.fired[node] ??= {});
     byNode[rule.name] = (byNode[rule.name] ?? 0) + 1;

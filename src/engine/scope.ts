@@ -17,28 +17,32 @@ export class Bindings {
   readonly usedMessages = new Set<string>();
 
   clear(): void {
-    this.pairs.clear();
-    this.messages.clear();
-    this.values.clear();
-    this.usedQubits.clear();
-    this.usedMessages.clear();
+    if (this.pairs.size) this.pairs.clear();
+    if (this.messages.size) this.messages.clear();
+    if (this.values.size) this.values.clear();
+    if (this.usedQubits.size) this.usedQubits.clear();
+    if (this.usedMessages.size) this.usedMessages.clear();
   }
 }
 
 /** The record view of a held half: `id partner stage age born` and noted values. */
 export function pairValue(rec: PairRecord, now: number): ValueRecord {
-  return { ...rec.notes, id: rec.id, partner: rec.partner, stage: rec.stage, age: now - rec.born, born: rec.born };
+  // built field by field: an object spread followed by more keys is very slow in V8 here
+  const v: Record<string, Value> = { id: rec.id, partner: rec.partner, stage: rec.stage, age: now - rec.born, born: rec.born };
+  for (const k in rec.notes) v[k] = rec.notes[k];
+  return v;
 }
 
 /** The record view of a message: `kind from to pair sent` and its data fields. */
 export function messageValue(m: Message): ValueRecord {
-  return { ...m.data, kind: m.kind, from: m.from, to: m.to, pair: m.pair, sent: m.sent };
+  const v: Record<string, Value> = { kind: m.kind, from: m.from, to: m.to, pair: m.pair, sent: m.sent };
+  for (const k in m.data) v[k] = m.data[k];
+  return v;
 }
 
 /** The functions node programs may call: the base library plus `join`, `age` and `now`. */
 export function programFunctions(at: { now: () => number; pairById: (id: string) => PairRecord | undefined }): Record<string, ExprFunction> {
-  return {
-    ...baseFunctions,
+  return Object.assign(Object.create(null) as Record<string, ExprFunction>, baseFunctions, {
     join: (args) => {
       if (args.length !== 2 || typeof args[0] !== 'string' || typeof args[1] !== 'string') {
         throw new Error('join takes two pair ids (strings), e.g. join(a.id, m.pair)');
@@ -62,26 +66,37 @@ export function programFunctions(at: { now: () => number; pairById: (id: string)
       }
       throw new Error('age takes a pair (a bound name or a pair id)');
     },
-  };
+  } satisfies Record<string, ExprFunction>);
 }
 
-/** A scope over one node's bindings, reused across the rules of one scan. */
+/** A scope over one node's bindings; one per node, reused for every scan via `reset`. */
 export class RuleScope implements Scope {
   readonly functions: Readonly<Record<string, ExprFunction>>;
   /** Local time of the rule body (advances with operation durations). */
   now: number;
+  private w: World;
+  private node: string;
 
   constructor(
     private readonly net: Net,
-    private readonly w: World,
-    private readonly node: string,
+    w: World,
+    node: string,
     readonly bindings: Bindings,
   ) {
+    this.w = w;
+    this.node = node;
     this.now = w.time;
     this.functions = programFunctions({
       now: () => this.now,
       pairById: (id) => Object.values(this.w.nodes[this.node].pairs).find((p) => p.id === id),
     });
+  }
+
+  /** Points the scope at another world (the same node), clearing its bindings. */
+  reset(w: World): void {
+    this.w = w;
+    this.now = w.time;
+    this.bindings.clear();
   }
 
   lookup(name: string): Value | undefined {

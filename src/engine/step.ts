@@ -13,6 +13,7 @@ import { Net } from './net.js';
 import { seedRng } from './rng.js';
 import { scanNode } from './scan.js';
 import { shortPairId } from './ids.js';
+import { refreeze, thaw } from './thaw.js';
 import type { EngineEvent, Scheduled, World } from './types.js';
 
 /** The world before any event: empty memories, every link attempting. */
@@ -124,6 +125,12 @@ export class Engine {
   readonly net: Net;
   private readonly immer = new Immer({ autoFreeze: true });
 
+  /**
+   * How batches are applied: `copy` (a mutable working copy per batch, frozen after; the
+   * default, fastest) or `immer` (one draft per batch). Both give identical worlds.
+   */
+  mode: 'copy' | 'immer' = 'copy';
+
   constructor(programSet: ProgramSet, noise: NoiseModel) {
     this.net = new Net(programSet, noise);
   }
@@ -149,7 +156,7 @@ export class Engine {
   advance(world: World, max: number, hooks: AdvanceHooks = {}): { world: World; events: EngineEvent[]; exhausted: boolean } {
     const events: EngineEvent[] = [];
     let exhausted = false;
-    const next = this.immer.produce(world, (d: World) => {
+    const batch = (d: World) => {
       while (events.length < max) {
         const t = peekNextTime(d);
         if (t === undefined) {
@@ -161,8 +168,15 @@ export class Engine {
         events.push(ev);
         if (hooks.after?.(ev, d)) break;
       }
-    }) as World;
-    return { world: events.length ? next : world, events, exhausted };
+    };
+    if (this.mode === 'immer') {
+      const next = this.immer.produce(world, batch) as World;
+      return { world: events.length ? next : world, events, exhausted };
+    }
+    // headless: one working copy per batch instead of proxies on every access
+    const work = thaw(world);
+    batch(work);
+    return { world: events.length ? refreeze(work) : world, events, exhausted };
   }
 }
 

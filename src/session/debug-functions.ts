@@ -64,9 +64,8 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
     if (!t) throw new Error(`${name}: no pair "${args[0]}" is held at both ends or delivered`);
     return t;
   };
-  return {
-    ...baseFunctions,
-    join: (args) => {
+  return Object.assign(Object.create(null) as Record<string, ExprFunction>, baseFunctions, {
+    join: (args: readonly Value[]) => {
       if (args.length !== 2 || typeof args[0] !== 'string' || typeof args[1] !== 'string') throw new Error('join takes two pair ids');
       return joinIds(args[0], args[1]);
     },
@@ -108,7 +107,7 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
     stalled: () => !hasNext(w) && quiescence(w) === 'stall',
     time: () => w.time,
     event: () => w.events,
-  };
+  } satisfies Record<string, ExprFunction>);
 }
 
 /** A scope for debugger expressions: node ids as names, plus extra bindings. */

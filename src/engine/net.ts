@@ -69,7 +69,7 @@ export class Net {
     const links = new Map<string, LinkInfo>();
     const at = new Map<string, string[]>(this.nodeIds.map((id) => [id, []]));
     for (const def of programSet.links) {
-      const noise = this.noise.links[def.id] ?? this.noise.defaults.link;
+      const noise = Object.hasOwn(this.noise.links, def.id) ? this.noise.links[def.id] : this.noise.defaults.link;
       const periodNs =
         noise.attemptPeriod === 'fiber' ? Math.round((def.lengthM / this.speed) * 1e9) : noise.attemptPeriod;
       links.set(def.id, {
@@ -89,8 +89,16 @@ export class Net {
     this.rules = new Map(this.nodeIds.map((id) => [id, programSet.programs[id]?.rules ?? []]));
   }
 
+  private readonly nodeNoiseCache = new Map<string, NodeNoise>();
+
+  /** Memory and gate noise of a node: its own entry, else the defaults. */
   nodeNoise(node: string): NodeNoise {
-    return this.noise.nodes[node] ?? { memory: this.noise.defaults.memory, gates: this.noise.defaults.gates };
+    let n = this.nodeNoiseCache.get(node);
+    if (!n) {
+      n = Object.hasOwn(this.noise.nodes, node) ? this.noise.nodes[node] : { memory: this.noise.defaults.memory, gates: this.noise.defaults.gates };
+      this.nodeNoiseCache.set(node, n);
+    }
+    return n;
   }
 
   /** Shortest fiber distance in metres, or Infinity when there is no path (Dijkstra, cached per source). */

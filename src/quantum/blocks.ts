@@ -1,8 +1,9 @@
 /**
- * In-place kernels on the raw data array. Every public operation copies its input once and
- * then runs one or more of these, so each touches only the index pairs a gate or channel
- * affects and no dense 2^n × 2^n product is ever formed. Kernels allocate nothing large:
- * on this runtime a typed array above 64 bytes costs far more than a 2-qubit gate itself.
+ * In-place gate kernels on the raw data array, and the block layout shared with the channel
+ * kernels. Every public operation copies its input once and then runs one or more kernels,
+ * so each touches only the index pairs a gate or channel affects and no dense 2^n × 2^n
+ * product is ever formed. Kernels allocate nothing large and create no closures: a typed
+ * array above 64 bytes costs more than a 2-qubit gate itself, so one copy per call is the budget.
  */
 import type { Mat2 } from './mat2.js';
 import { dimOf, maskOf } from './rho.js';
@@ -141,7 +142,8 @@ export function flipInPlace(d: Float64Array, n: number, q: number): void {
   }
 }
 
-function mulAt(d: Float64Array, i: number, fr: number, fi: number): void {
+/** Multiplies entry i by the complex factor f (in place). */
+export function mulAt(d: Float64Array, i: number, fr: number, fi: number): void {
   const re = d[i];
   const im = d[i + 1];
   d[i] = fr * re - fi * im;
@@ -180,6 +182,22 @@ export function involutionInPlace(d: Float64Array, n: number, p: Int32Array): vo
   }
 }
 
+/** A new array with ρ'[r,c] = ρ[p(r), p(c)] for a permutation p (first 2^n entries). */
+export function permutedCopy(src: Float64Array, n: number, p: Int32Array): Float64Array {
+  const dim = dimOf(n);
+  const out = new Float64Array(src.length);
+  for (let r = 0; r < dim; r++) {
+    const row = 2 * r * dim;
+    const srcRow = 2 * p[r] * dim;
+    for (let c = 0; c < dim; c++) {
+      const from = srcRow + 2 * p[c];
+      out[row + 2 * c] = src[from];
+      out[row + 2 * c + 1] = src[from + 1];
+    }
+  }
+  return out;
+}
+
 /** CZ on the qubits under `both`: negates (r,c) where exactly one of r, c has both bits set. */
 export function czInPlace(d: Float64Array, n: number, both: number): void {
   const dim = dimOf(n);
@@ -190,99 +208,6 @@ export function czInPlace(d: Float64Array, n: number, both: number): void {
       const i = 2 * (r * dim + c);
       d[i] = -d[i];
       d[i + 1] = -d[i + 1];
-    }
-  }
-}
-
-/** Scales the off-diagonal entries of qubit q's blocks by a real factor (dephasing). */
-export function scaleCoherenceInPlace(d: Float64Array, n: number, q: number, factor: number): void {
-  if (factor !== 1) phase1InPlace(d, n, q, factor, 0);
-}
-
-/** Amplitude damping with decay probability γ on qubit q. */
-export function amplitudeDampInPlace(d: Float64Array, n: number, q: number, gamma: number): void {
-  if (gamma === 0) return;
-  const keep = 1 - gamma;
-  const root = Math.sqrt(keep);
-  const L = blockLayout(n, q);
-  for (let k = 0; k < L.count; k++) {
-    const i = L.bases[k];
-    const i11 = i + L.s11;
-    d[i] += gamma * d[i11];
-    d[i + 1] += gamma * d[i11 + 1];
-    d[i11] *= keep;
-    d[i11 + 1] *= keep;
-    mulAt(d, i + L.s01, root, 0);
-    mulAt(d, i + L.s10, root, 0);
-  }
-}
-
-/** Mixes two entries: (x, y) ← (k·x + p·y, k·y + p·x), both components. */
-function mixAt(d: Float64Array, a: number, b: number, k: number, p: number): void {
-  for (let t = 0; t < 2; t++) {
-    const x = d[a + t];
-    const y = d[b + t];
-    d[a + t] = k * x + p * y;
-    d[b + t] = k * y + p * x;
-  }
-}
-
-/** B ← (1−p)·B + p·X·B·X on qubit q's blocks. */
-export function bitFlipInPlace(d: Float64Array, n: number, q: number, p: number): void {
-  if (p === 0) return;
-  const L = blockLayout(n, q);
-  for (let k = 0; k < L.count; k++) {
-    const i = L.bases[k];
-    mixAt(d, i, i + L.s11, 1 - p, p);
-    mixAt(d, i + L.s01, i + L.s10, 1 - p, p);
-  }
-}
-
-/** B ← (1−p)·B + p·(Tr B / 2)·I on qubit q's blocks, i.e. (1−p)ρ + p·Tr_q ρ ⊗ I/2. */
-export function depolarize1InPlace(d: Float64Array, n: number, q: number, p: number): void {
-  if (p === 0) return;
-  const keep = 1 - p;
-  const L = blockLayout(n, q);
-  for (let k = 0; k < L.count; k++) {
-    const i = L.bases[k];
-    const i11 = i + L.s11;
-    const hr = (p * (d[i] + d[i11])) / 2;
-    const hi = (p * (d[i + 1] + d[i11 + 1])) / 2;
-    d[i] = keep * d[i] + hr;
-    d[i + 1] = keep * d[i + 1] + hi;
-    d[i11] = keep * d[i11] + hr;
-    d[i11 + 1] = keep * d[i11 + 1] + hi;
-    mulAt(d, i + L.s01, keep, 0);
-    mulAt(d, i + L.s10, keep, 0);
-  }
-}
-
-/** ρ ← (1−p)ρ + p·Tr_{q1 q2} ρ ⊗ I/4, working on the 4×4 blocks of the two qubits. */
-export function depolarize2InPlace(d: Float64Array, n: number, q1: number, q2: number, p: number): void {
-  if (p === 0) return;
-  const dim = dimOf(n);
-  const m1 = maskOf(n, q1);
-  const m2 = maskOf(n, q2);
-  const both = m1 | m2;
-  const sub = [0, m2, m1, both];
-  const keep = 1 - p;
-  for (let rb = 0; rb < dim; rb++) {
-    if (rb & both) continue;
-    for (let cb = 0; cb < dim; cb++) {
-      if (cb & both) continue;
-      let tr = 0;
-      let ti = 0;
-      for (const a of sub) {
-        const i = 2 * ((rb + a) * dim + cb + a);
-        tr += d[i];
-        ti += d[i + 1];
-      }
-      for (const a of sub) {
-        for (const b of sub) mulAt(d, 2 * ((rb + a) * dim + cb + b), keep, 0);
-        const i = 2 * ((rb + a) * dim + cb + a);
-        d[i] += (p * tr) / 4;
-        d[i + 1] += (p * ti) / 4;
-      }
     }
   }
 }

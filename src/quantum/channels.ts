@@ -2,14 +2,14 @@
  * Noise channels on one or two qubits (Nielsen & Chuang §8.3), each applied block by block
  * to the affected qubits' 2×2 (or 4×4) sub-blocks.
  */
+import { superop1InPlace } from './blocks.js';
 import {
   amplitudeDampInPlace,
   bitFlipInPlace,
   depolarize1InPlace,
   depolarize2InPlace,
   scaleCoherenceInPlace,
-  superop1InPlace,
-} from './blocks.js';
+} from './channel-kernels.js';
 import { completenessError, superopOf, type Mat2 } from './mat2.js';
 import { checkDistinct, checkProbability, checkQubit, clone, type Rho } from './rho.js';
 

@@ -3,7 +3,15 @@
  * (x, cnot, swap), a diagonal phase (z, s, sdg, t, rz, cz), or a 2×2 kernel on the
  * affected blocks (h, y, rx, ry).
  */
-import { czInPlace, flipInPlace, involutionInPlace, permutationScratch, phase1InPlace, unitary1InPlace } from './blocks.js';
+import {
+  czInPlace,
+  flipInPlace,
+  involutionInPlace,
+  permutationScratch,
+  permutedCopy,
+  phase1InPlace,
+  unitary1InPlace,
+} from './blocks.js';
 import { H, rx, ry, Y } from './mat2.js';
 import { checkDistinct, clone, dimOf, maskOf, type Rho } from './rho.js';
 
@@ -13,8 +21,6 @@ export type GateName = 'x' | 'y' | 'z' | 'h' | 's' | 'sdg' | 't' | 'rx' | 'ry' |
 const ARITY: Readonly<Record<GateName, 1 | 2>> = {
   x: 1, y: 1, z: 1, h: 1, s: 1, sdg: 1, t: 1, rx: 1, ry: 1, rz: 1, cnot: 2, cz: 2, swap: 2,
 };
-
-const ROTATIONS: ReadonlySet<GateName> = new Set(['rx', 'ry', 'rz']);
 
 /** Every gate name, in a stable order. */
 export const GATE_NAMES: readonly GateName[] = Object.keys(ARITY) as GateName[];
@@ -26,9 +32,27 @@ export function isGateName(name: string): name is GateName {
 
 /** Applies a gate to the given qubits (for cnot: [control, target]) and returns the new state. */
 export function applyGate(rho: Rho, gate: GateName, qubits: readonly number[], angle?: number): Rho {
+  checkGate(rho.n, gate, qubits, angle);
+  // Permutations write straight into a fresh array: no copy to undo.
+  if (gate === 'cnot') return { n: rho.n, data: permutedCopy(rho.data, rho.n, cnotPermutation(rho.n, qubits[0], qubits[1])) };
+  if (gate === 'swap') return { n: rho.n, data: permutedCopy(rho.data, rho.n, swapPermutation(rho.n, qubits[0], qubits[1])) };
   const out = clone(rho);
   applyGateInPlace(out.data, out.n, gate, qubits, angle);
   return out;
+}
+
+function checkGate(n: number, gate: GateName, qubits: readonly number[], angle: number | undefined): void {
+  if (!isGateName(gate)) {
+    throw new Error(`unknown gate "${String(gate)}"; known gates: ${GATE_NAMES.join(' ')}`);
+  }
+  const arity = ARITY[gate];
+  if (qubits.length !== arity) {
+    throw new Error(`gate ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'}, got ${qubits.length}`);
+  }
+  checkDistinct(n, qubits);
+  if ((gate === 'rx' || gate === 'ry' || gate === 'rz') && (angle === undefined || !Number.isFinite(angle))) {
+    throw new Error(`gate ${gate} needs a finite angle in radians, got ${String(angle)}`);
+  }
 }
 
 /** The in-place form of `applyGate`, for callers that have already copied. */
@@ -39,17 +63,7 @@ export function applyGateInPlace(
   qubits: readonly number[],
   angle?: number,
 ): void {
-  if (!isGateName(gate)) {
-    throw new Error(`unknown gate "${String(gate)}"; known gates: ${GATE_NAMES.join(' ')}`);
-  }
-  const arity = ARITY[gate];
-  if (qubits.length !== arity) {
-    throw new Error(`gate ${gate} acts on ${arity} qubit${arity === 1 ? '' : 's'}, got ${qubits.length}`);
-  }
-  checkDistinct(n, qubits);
-  if (ROTATIONS.has(gate) && (angle === undefined || !Number.isFinite(angle))) {
-    throw new Error(`gate ${gate} needs a finite angle in radians, got ${String(angle)}`);
-  }
+  checkGate(n, gate, qubits, angle);
   const theta = angle ?? 0;
   const [a, b] = qubits;
   switch (gate) {

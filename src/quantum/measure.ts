@@ -2,7 +2,8 @@
  * Projective, destructive measurement with an injected uniform draw, and outcome
  * probabilities in the Z, X and Y bases.
  */
-import { bitFlipInPlace, unitary1InPlace } from './blocks.js';
+import { unitary1InPlace } from './blocks.js';
+import { bitFlipInPlace } from './channel-kernels.js';
 import { H, SDG } from './mat2.js';
 import { checkProbability, checkQubit, clone, dimOf, maskOf, type Rho } from './rho.js';
 

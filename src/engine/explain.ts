@@ -95,11 +95,14 @@ function readings(ast: ExprNode, scope: RuleScope, source: string): string[] {
       if (n.type === 'member') visit(n.object);
       return;
     }
-    if (n.type === 'unary') visit(n.argument);
-    else if (n.type === 'binary') (visit(n.left), visit(n.right));
-    else if (n.type === 'conditional') (visit(n.test), visit(n.consequent), visit(n.alternate));
-    else if (n.type === 'call') n.args.forEach(visit);
-    else if (n.type === 'index') (visit(n.object), visit(n.index));
+    const children: ExprNode[] =
+      n.type === 'unary' ? [n.argument]
+      : n.type === 'binary' ? [n.left, n.right]
+      : n.type === 'conditional' ? [n.test, n.consequent, n.alternate]
+      : n.type === 'call' ? [...n.args]
+      : n.type === 'index' ? [n.object, n.index]
+      : [];
+    children.forEach(visit);
   };
   visit(ast);
   return [...out].map(([k, v]) => `${k} = ${v}`);

@@ -50,7 +50,10 @@ function sentKinds(net: Net): Set<string> {
   const visit = (steps: readonly import('../model/types.js').Step[]): void => {
     for (const s of steps) {
       if (s.kind === 'send') kinds.add(s.msgKind);
-      if (s.kind === 'if') (visit(s.then), visit(s.else));
+      if (s.kind === 'if') {
+        visit(s.then);
+        visit(s.else);
+      }
     }
   };
   for (const rules of net.rules.values()) for (const r of rules) visit(r.do);

@@ -157,11 +157,17 @@ function reasonFor(ctx: MatchContext, rule: Rule, i: number): string {
       const src = from ? ` from ${from}` : '';
       const inbox = ctx.w.nodes[ctx.node].inbox;
       const sameKind = gotCandidates(ctx, g.msgKind, undefined, new Set());
-      let text = `waits for a "${g.msgKind}" message${src}`;
+      let text = `waits for ${/^[aeiou]/i.test(g.msgKind) ? 'an' : 'a'} "${g.msgKind}" message${src}`;
       if (sameKind.length) text += `; the inbox holds ${sameKind.length} from ${[...new Set(sameKind.map((m) => m.from))].join(', ')}`;
       else if (inbox.length) text += `; the inbox holds ${inbox.slice(0, 3).map(describeMessage).join(', ')}${inbox.length > 3 ? ', ...' : ''}`;
       else text += '; the inbox is empty';
-      return `${text}; ${inflightNote(ctx.w, ctx.node, g.msgKind, from)}`;
+      text += `; ${inflightNote(ctx.w, ctx.node, g.msgKind, from)}`;
+      const lost = ctx.w.lost.filter((m) => m.to === ctx.node && m.kind === g.msgKind && (from === undefined || m.from === from));
+      if (lost.length) {
+        const m = lost[lost.length - 1];
+        text += `; one was lost: ${m.from} sent it at ${formatDuration(m.sent)}${m.pair ? ` about ${m.pair}` : ''} (${m.dropped})`;
+      }
+      return text;
     }
     case 'check': {
       const shown = readings(g.expr.compiled.ast, ctx.scope, g.expr.compiled.source);
@@ -188,7 +194,7 @@ function matchPairAbout(ctx: MatchContext, source: string): string | undefined {
   const all = gotCandidates(ctx, msg.kind, msg.from, new Set());
   const abouts = [...new Set(all.map((x) => x.pair ?? 'no pair'))];
   return (
-    `waits for a "${msg.kind}" message from ${msg.from} about pair ${rec.id}; ` +
+    `waits for ${/^[aeiou]/i.test(msg.kind) ? 'an' : 'a'} "${msg.kind}" message from ${msg.from} about pair ${rec.id}; ` +
     `the inbox holds ${all.length === 1 ? 'one' : all.length} about ${abouts.join(', ')}`
   );
 }

@@ -7,5 +7,5 @@ export { explainNode, explainRule, guardText, stallReport, type GuardStatus, typ
 export { farHalf, twoQubitState, viewPair, type PairView } from './pair-state.js';
 export { programFunctions, pairValue, messageValue } from './scope.js';
 export { RULE_LOOP_LIMIT } from './scan.js';
-export { seedRng, drawUniform, geometricAttempts } from './rng.js';
+export { seedRng, drawUniform, geometricAttempts, mixSeed, SEED_WARMUP } from './rng.js';
 export type * from './types.js';

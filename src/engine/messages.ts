@@ -8,6 +8,9 @@ import { draw } from './links.js';
 import type { Net } from './net.js';
 import type { SendRecord, World } from './types.js';
 
+/** Lost messages remembered in the world for explanations. */
+export const LOST_KEPT = 32;
+
 export interface Outgoing {
   from: string;
   to: string;
@@ -36,7 +39,10 @@ export function send(net: Net, w: World, msg: Outgoing, t: number): SendRecord {
   const arrives = t + delay;
   if (dropped) {
     w.counters.dropped++;
-    return { id, ...pick(msg), sent: t, arrives, dropped };
+    const rec: SendRecord = { id, ...pick(msg), sent: t, arrives, dropped };
+    w.lost.push(rec);
+    if (w.lost.length > LOST_KEPT) w.lost.splice(0, w.lost.length - LOST_KEPT);
+    return rec;
   }
   w.inflight[id] = { id, ...msg, sent: t, arrives };
   heapPush(w.queue, { time: arrives, seq: w.seq++, type: 'arrive', message: id });

@@ -6,10 +6,27 @@ import { xoroshiro128plus, xoroshiro128plusFromState } from 'pure-rand/generator
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import type { RngState } from './types.js';
 
-/** The generator state for a seed; seeds above 32 bits fold their high part in. */
+/** Draws thrown away after seeding, so the first draws of nearby seeds are unrelated. */
+export const SEED_WARMUP = 16;
+
+/**
+ * Spreads a seed's bits (the murmur3 32-bit finaliser over its low and high words), since
+ * xoroshiro128+ seeded with nearby integers starts with nearly equal outputs.
+ */
+export function mixSeed(seed: number): number {
+  let h = (seed | 0) ^ Math.imul(Math.floor(seed / 0x100000000) | 0, 0x9e3779b1);
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h | 0;
+}
+
+/** The generator state for a seed. */
 export function seedRng(seed: number): RngState {
-  const hi = Math.floor(seed / 0x100000000) | 0;
-  const gen = xoroshiro128plus((seed | 0) ^ hi);
+  const gen = xoroshiro128plus(mixSeed(seed));
+  for (let i = 0; i < SEED_WARMUP; i++) gen.next();
   return [...gen.getState()] as RngState;
 }
 

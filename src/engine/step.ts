@@ -31,6 +31,7 @@ export function initialWorld(net: Net, seed: number): World {
     inflight: {},
     halves: {},
     delivered: [],
+    lost: [],
     fired: {},
     generated: {},
     counters: { qubit: 0, cluster: 0, pair: 0, message: 0, sent: 0, arrived: 0, dropped: 0, faultHits: net.noise.faults.map(() => 0) },

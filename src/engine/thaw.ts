@@ -35,6 +35,7 @@ export function thaw(w: World): World {
     inflight: { ...w.inflight },
     halves: { ...w.halves },
     delivered: w.delivered.slice(),
+    lost: w.lost.slice(),
     fired: mapValues(w.fired, (r) => ({ ...r })),
     generated: { ...w.generated },
     counters: { ...w.counters, faultHits: w.counters.faultHits.slice() },

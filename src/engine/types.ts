@@ -129,6 +129,8 @@ export interface World {
   inflight: Record<string, Message>;
   halves: Record<string, HalfDelivery>;
   delivered: DeliveryRecord[];
+  /** The most recent lost messages (at most LOST_KEPT), for explanations. */
+  lost: SendRecord[];
   fired: Record<string, Record<string, number>>;
   generated: Record<string, number>;
   counters: Counters;

@@ -17,9 +17,13 @@ function textReport(s: RunSummary): string {
   lines.push(`pairs generated: ${gen || 'none'}`);
   lines.push(`messages: ${s.messages.sent} sent, ${s.messages.delivered} arrived, ${s.messages.dropped} lost`);
   if (s.delivered.length) {
-    const fs = s.delivered.map((d) => d.fidelity);
-    const mean = fs.reduce((a, b) => a + b, 0) / fs.length;
-    lines.push(`delivered: ${s.delivered.length} pairs, fidelity mean ${mean.toFixed(4)}, min ${Math.min(...fs).toFixed(4)}`);
+    let sum = 0;
+    let min = Infinity;
+    for (const d of s.delivered) {
+      sum += d.fidelity;
+      min = Math.min(min, d.fidelity);
+    }
+    lines.push(`delivered: ${s.delivered.length} pairs, fidelity mean ${(sum / s.delivered.length).toFixed(4)}, min ${min.toFixed(4)}`);
   } else lines.push('delivered: none');
   for (const [node, rules] of Object.entries(s.fired)) {
     lines.push(`  ${node}: ${Object.entries(rules).map(([r, n]) => `${r} ×${n}`).join(', ')}`);

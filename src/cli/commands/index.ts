@@ -4,5 +4,7 @@ import { runCommand } from './run.js';
 import { replayCommand } from './replay.js';
 import { checkCommand } from './check.js';
 import { schemaCommand } from './schema.js';
+import { debugCommand } from './debug.js';
+import { demoCommand } from './demo.js';
 
-export const COMMANDS: CommandSpec[] = [runCommand, replayCommand, checkCommand, schemaCommand];
+export const COMMANDS: CommandSpec[] = [debugCommand, runCommand, replayCommand, checkCommand, schemaCommand, demoCommand];

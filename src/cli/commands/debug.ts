@@ -1,0 +1,120 @@
+/**
+ * `bellstep debug`: the step-through debugger in the terminal (FORMAT.md §5). Inputs come
+ * from the files or, with --replay, from the replay file; --at opens the cursor on an
+ * event; --autoplay starts teaching mode. Without a terminal it points to `bellstep run`.
+ */
+import { Engine } from '../../engine/index.js';
+import { InputError } from '../../model/errors.js';
+import { parseReplay } from '../../session/replay.js';
+import { Session } from '../../session/session.js';
+import { engineFromReplay } from '../../session/verify.js';
+import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
+import type { CliIo } from '../io.js';
+import { loadFiles, many, parseSeed, readInput } from '../inputs.js';
+import { EXIT, type CommandSpec, type OptionSpec } from '../spec.js';
+
+export interface OpenOptions {
+  /** Breakpoints to add before the debugger opens. */
+  readonly breaks: readonly string[];
+  /** Event to open the cursor on (its index). */
+  readonly at?: number;
+  /** Teaching mode: events per second. */
+  readonly autoplay?: number;
+  /** The headless command that does the same job, for the no-terminal message. */
+  readonly runHint: string;
+}
+
+/** Parses `--autoplay`: events per second, more than 0 and at most 100. */
+export function parseRate(v: unknown): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  const n = Number(s);
+  if (!/^[0-9]+(\.[0-9]+)?$/.test(s) || n <= 0 || n > 100) {
+    throw new InputError({ code: 'usage', field: '--autoplay', message: `expected events per second (more than 0, at most 100), got "${s}"`, fix: 'write e.g. --autoplay 2' });
+  }
+  return n;
+}
+
+function parseAt(v: unknown): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  if (!/^[0-9]+$/.test(s)) throw new InputError({ code: 'usage', field: '--at', message: `expected an event index (0 or more), got "${s}"`, fix: 'write e.g. --at 12' });
+  return Number(s);
+}
+
+function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): boolean {
+  return env[key] !== undefined && env[key] !== '0' && env[key] !== 'false';
+}
+
+/** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
+export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
+  const session = new Session(engine);
+  for (const b of opts.breaks) session.addBreakpoint(b);
+  if (!io.stdinIsTTY || !io.stdoutIsTTY) {
+    io.stderr(
+      `bellstep: the debugger needs an interactive terminal (${!io.stdinIsTTY ? 'stdin' : 'stdout'} is not one)\n` +
+        `  fix: for a headless run, use: ${opts.runHint}\n`,
+    );
+    return EXIT.input;
+  }
+  // Ink draws nothing until exit when CI is set; with both streams on a terminal the
+  // session is interactive whatever the shell says, so this process drops the flag
+  // before Ink is loaded
+  for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
+  const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
+  if (opts.at !== undefined) session.goto(opts.at + 1);
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t) });
+  onCrashSaveReplay((why) => {
+    const path = crashReplayPath(io);
+    io.writeFile(path, session.exportReplay({ reason: 'events', detail: `automatic replay after an internal error in the debugger: ${why}` }));
+    return path;
+  });
+  // on a crash this throws with the hook still set, so the CLI's report can save the replay
+  await startDebugger(controller, { stdin: process.stdin, stdout: process.stdout, stderr: process.stderr });
+  onCrashSaveReplay(undefined);
+  return EXIT.ok;
+}
+
+export const DEBUG_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--noise <N.yaml>', description: 'noise model (default: ideal)' },
+  { flags: '--seed <S>', description: "seed (overrides the noise model's)" },
+  { flags: '--break <EXPR>', description: 'add a breakpoint before opening (repeatable)', repeatable: true },
+  { flags: '--replay <R.json>', description: 'open a replay file: its embedded inputs, seed and breakpoints' },
+  { flags: '--at <I>', description: 'with --replay: open with the cursor on event I' },
+  { flags: '--autoplay <RATE>', description: 'teaching mode: step RATE events per second, narrating each (Space pauses)' },
+];
+
+export const debugCommand: CommandSpec = {
+  name: 'debug',
+  args: '[NET.yaml]',
+  summary: 'step through a run in the terminal: panes, breakpoints, rewind (needs a terminal)',
+  options: DEBUG_OPTIONS,
+  async run({ io }, [netPath], opts) {
+    const seedFlag = parseSeed(opts.seed);
+    const autoplay = parseRate(opts.autoplay);
+    const at = parseAt(opts.at);
+    const breaks = many(opts.break);
+    if (opts.replay !== undefined) {
+      const path = String(opts.replay);
+      const replay = parseReplay(readInput(io, path, 'replay file'), path);
+      if (seedFlag !== undefined && seedFlag !== replay.seed) {
+        throw new InputError({ code: 'usage', field: '--seed', message: `the replay was recorded with seed ${replay.seed}`, fix: 'leave out --seed with --replay' });
+      }
+      if (netPath !== undefined && readInput(io, netPath, 'program set') !== replay.inputs.program_set.text) {
+        io.stderr(`bellstep: note: ${netPath} differs from the program set recorded in ${path}; the debugger uses the recorded one\n`);
+      }
+      if (at !== undefined && at >= replay.events.length) {
+        throw new InputError({ code: 'usage', field: '--at', message: `the replay holds events 0 to ${replay.events.length - 1}, not ${at}`, fix: `write --at ${Math.max(0, replay.events.length - 1)} or less` });
+      }
+      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify` });
+    }
+    if (netPath === undefined) {
+      throw new InputError({ code: 'usage', field: 'NET.yaml', message: 'debug needs a program set or --replay', fix: 'write e.g. bellstep debug swap.net.yaml --noise swap.noise.yaml' });
+    }
+    if (at !== undefined) throw new InputError({ code: 'usage', field: '--at', message: '--at needs --replay', fix: 'to open at an event of a fresh run, use the command "go N" inside the debugger' });
+    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
+    const engine = new Engine(programSet, noise);
+    const hint = ['bellstep run', netPath, ...(opts.noise ? ['--noise', String(opts.noise)] : []), ...(seedFlag !== undefined ? ['--seed', String(seedFlag)] : []), ...breaks.map((b) => `--break "${b}"`)].join(' ');
+    return openDebugger(io, engine, { breaks, autoplay, runHint: hint });
+  },
+};

@@ -65,7 +65,7 @@ export const KEYS: readonly KeyBinding[] = [
   { action: 'goto', chords: [{ input: '#' }], label: '#', does: 'open the command line with "go " typed: an event number or a time' },
   { action: 'help', chords: [{ input: '?' }], label: '?', does: 'show or hide this help' },
   { action: 'close', chords: [{ name: 'escape' }], label: 'Esc', does: 'close the help, a list or the command line' },
-  { action: 'quit', chords: [{ input: 'q' }, { input: 'c', ctrl: true }], label: 'q  Ctrl+C', does: 'quit' },
+  { action: 'quit', chords: [{ input: 'q' }, { input: 'c', ctrl: true }], label: 'q  Ctrl+C', does: 'leave the debugger' },
 ];
 
 function named(key: Key, name: KeyName): boolean {

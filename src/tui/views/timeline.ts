@@ -23,6 +23,7 @@ export const TIMELINE_MARKS: readonly { mark: string; meaning: string; tone: Ton
   { mark: 'o', meaning: 'a message arrived and no rule fired', tone: 'dim' },
   { mark: '~', meaning: 'a wake-up and no rule fired', tone: 'dim' },
   { mark: '\\ /', meaning: 'a message on its way (time goes down)', tone: 'plain' },
+  { mark: '> <', meaning: 'a message arriving', tone: 'plain' },
 ];
 
 const TONE = new Map(TIMELINE_MARKS.map((m) => [m.mark, m.tone]));
@@ -137,7 +138,7 @@ export function timelineView(inp: TimelineInput, cols: number, rows: number): Li
     }
     for (const [id, f] of live) {
       const arr = arrivedAt.get(id);
-      if (r <= f.sentAt || (arr !== undefined && r >= arr)) continue;
+      if (r <= f.sentAt || (arr !== undefined && r > arr)) continue;
       if ((f.sentAt < 0 && t < f.sent) || (arr === undefined && t > f.arrives)) continue;
       const xa = colPos(f.from, sites, first, cw);
       const xb = colPos(f.to, sites, first, cw);
@@ -149,11 +150,13 @@ export function timelineView(inp: TimelineInput, cols: number, rows: number): Li
       const frac = (row: number, time: number): number =>
         arr !== undefined && f.sentAt >= 0 ? (row - f.sentAt) / (arr - f.sentAt) : Math.min(1, Math.max(0, (time - f.sent) / span));
       const x0 = Math.round(xa + (xb - xa) * frac(r - 1, prevT));
-      const x1 = Math.round(xa + (xb - xa) * frac(r, t));
+      // on its arrival row the line ends in an arrowhead beside the receiver's mark
+      const arriving = r === arr;
+      const x1 = arriving ? xb - dir : Math.round(xa + (xb - xa) * frac(r, t));
       const from = x0 === x1 ? x1 : x0 + dir;
       for (let x = from; dir > 0 ? x <= x1 : x >= x1; x += dir) {
         if (x < 0 || x >= gridW || x === xb || x === xa) continue;
-        cells[x] = x === x1 ? (dir > 0 ? '\\' : '/') : '─';
+        cells[x] = x !== x1 ? '─' : arriving ? (dir > 0 ? '>' : '<') : dir > 0 ? '\\' : '/';
         tones[x] = 'plain';
       }
     }

@@ -29,7 +29,7 @@ const layerRules = Object.entries(forbidden).map(([layer, banned]) => ({
 }));
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'coverage/**'] },
+  { ignores: ['dist/**', 'dist-bench/**', 'node_modules/**', 'coverage/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

@@ -3,7 +3,7 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts', 'test/**/*.test.tsx'],
-    exclude: ['dist/**', 'node_modules/**'],
+    exclude: ['dist/**', 'dist-bench/**', 'node_modules/**'],
     testTimeout: 60_000,
     hookTimeout: 60_000,
   },

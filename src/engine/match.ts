@@ -92,84 +92,99 @@ function snapshot(b: Bindings): DeepestFailure['bound'] {
   return { pairs: new Map(b.pairs), messages: new Map(b.messages), values: new Map(b.values) };
 }
 
+interface Search {
+  readonly ctx: MatchContext;
+  readonly rule: Rule;
+  readonly deepest?: { value?: DeepestFailure };
+  budget: number;
+}
+
+function fail(s: Search, i: number): false {
+  const d = s.deepest;
+  if (d && (d.value === undefined || i > d.value.guard)) d.value = { guard: i, bound: snapshot(s.ctx.scope.bindings) };
+  return false;
+}
+
+function bindPair(b: Bindings, name: string | undefined, rec: PairRecord): void {
+  b.usedQubits.add(rec.qubit);
+  if (name) b.pairs.set(name, rec.qubit);
+}
+
+function unbindPair(b: Bindings, name: string | undefined, rec: PairRecord): void {
+  b.usedQubits.delete(rec.qubit);
+  if (name) b.pairs.delete(name);
+}
+
+// Written without per-call closures: this runs for every rule after every event.
+function search(s: Search, i: number): boolean {
+  if (--s.budget < 0) return false;
+  const guards = s.rule.when;
+  if (i === guards.length) return true;
+  const { ctx, rule } = s;
+  const b = ctx.scope.bindings;
+  const g: Guard = guards[i];
+  switch (g.kind) {
+    case 'have': {
+      const partner = evalNode(g.partner, ctx, rule.name);
+      const cands = haveCandidates(ctx, g, partner, b.usedQubits);
+      if (cands.length < g.count) return fail(s, i);
+      if (g.count === 1) {
+        for (const rec of cands) {
+          bindPair(b, g.as[0], rec);
+          if (search(s, i + 1)) return true;
+          unbindPair(b, g.as[0], rec);
+        }
+        return fail(s, i);
+      }
+      const chosen = cands.slice(0, g.count);
+      for (let k = 0; k < chosen.length; k++) bindPair(b, g.as[k], chosen[k]);
+      if (search(s, i + 1)) return true;
+      for (let k = 0; k < chosen.length; k++) unbindPair(b, g.as[k], chosen[k]);
+      return fail(s, i);
+    }
+    case 'have-id': {
+      const id = evalIn(g.id, ctx.scope, { node: ctx.node, rule: rule.name });
+      const pairs = ctx.w.nodes[ctx.node].pairs;
+      let rec: PairRecord | undefined;
+      for (const q in pairs) {
+        const p = pairs[q];
+        if (p.id === id && (g.stage === undefined || p.stage === g.stage) && !b.usedQubits.has(p.qubit)) {
+          rec = p;
+          break;
+        }
+      }
+      if (!rec) return fail(s, i);
+      bindPair(b, g.as, rec);
+      if (search(s, i + 1)) return true;
+      unbindPair(b, g.as, rec);
+      return fail(s, i);
+    }
+    case 'got': {
+      const from = g.from ? evalNode(g.from, ctx, rule.name) : undefined;
+      const inbox = ctx.w.nodes[ctx.node].inbox;
+      for (let k = 0; k < inbox.length; k++) {
+        const m = inbox[k];
+        if (m.kind !== g.msgKind || (from !== undefined && m.from !== from) || b.usedMessages.has(m.id)) continue;
+        b.usedMessages.add(m.id);
+        if (g.as) b.messages.set(g.as, m);
+        if (search(s, i + 1)) return true;
+        b.usedMessages.delete(m.id);
+        if (g.as) b.messages.delete(g.as);
+      }
+      return fail(s, i);
+    }
+    case 'check': {
+      if (truthy(evalIn(g.expr, ctx.scope, { node: ctx.node, rule: rule.name }), g.expr, ctx.node, rule.name) && search(s, i + 1)) return true;
+      return fail(s, i);
+    }
+  }
+}
+
 /**
  * Tries a rule's guards against the node's current state. On success the bindings hold the
  * matched pairs and messages; on failure `deepest` (if given) tells which guard blocked it.
  */
 export function matchRule(ctx: MatchContext, rule: Rule, deepest?: { value?: DeepestFailure }): boolean {
-  const b = ctx.scope.bindings;
-  b.clear();
-  let budget = SEARCH_BUDGET;
-  const guards = rule.when;
-  const where = { node: ctx.node, rule: rule.name };
-
-  const fail = (i: number): false => {
-    if (deepest && (deepest.value === undefined || i > deepest.value.guard)) deepest.value = { guard: i, bound: snapshot(b) };
-    return false;
-  };
-
-  const bindPair = (name: string | undefined, rec: PairRecord): void => {
-    b.usedQubits.add(rec.qubit);
-    if (name) b.pairs.set(name, rec.qubit);
-  };
-  const unbindPair = (name: string | undefined, rec: PairRecord): void => {
-    b.usedQubits.delete(rec.qubit);
-    if (name) b.pairs.delete(name);
-  };
-
-  const search = (i: number): boolean => {
-    if (--budget < 0) return false;
-    if (i === guards.length) return true;
-    const g: Guard = guards[i];
-    switch (g.kind) {
-      case 'have': {
-        const partner = evalNode(g.partner, ctx, rule.name);
-        const cands = haveCandidates(ctx, g, partner, b.usedQubits);
-        if (cands.length < g.count) return fail(i);
-        if (g.count === 1) {
-          for (const rec of cands) {
-            bindPair(g.as[0], rec);
-            if (search(i + 1)) return true;
-            unbindPair(g.as[0], rec);
-          }
-          return fail(i);
-        }
-        const chosen = cands.slice(0, g.count);
-        chosen.forEach((rec, k) => bindPair(g.as[k], rec));
-        if (search(i + 1)) return true;
-        chosen.forEach((rec, k) => unbindPair(g.as[k], rec));
-        return fail(i);
-      }
-      case 'have-id': {
-        const id = evalIn(g.id, ctx.scope, where);
-        const rec = Object.values(ctx.w.nodes[ctx.node].pairs).find(
-          (p) => p.id === id && (g.stage === undefined || p.stage === g.stage) && !b.usedQubits.has(p.qubit),
-        );
-        if (!rec) return fail(i);
-        bindPair(g.as, rec);
-        if (search(i + 1)) return true;
-        unbindPair(g.as, rec);
-        return fail(i);
-      }
-      case 'got': {
-        const from = g.from ? evalNode(g.from, ctx, rule.name) : undefined;
-        for (const m of gotCandidates(ctx, g.msgKind, from, b.usedMessages)) {
-          b.usedMessages.add(m.id);
-          if (g.as) b.messages.set(g.as, m);
-          if (search(i + 1)) return true;
-          b.usedMessages.delete(m.id);
-          if (g.as) b.messages.delete(g.as);
-        }
-        return fail(i);
-      }
-      case 'check': {
-        if (truthy(evalIn(g.expr, ctx.scope, where), g.expr, ctx.node, rule.name)) {
-          if (search(i + 1)) return true;
-        }
-        return fail(i);
-      }
-    }
-  };
-
-  return search(0);
+  ctx.scope.bindings.clear();
+  return search({ ctx, rule, deepest, budget: SEARCH_BUDGET }, 0);
 }

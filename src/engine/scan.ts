@@ -51,7 +51,13 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
       break;
     }
     scope.now = w.time;
-    const rule = rules.find((r) => matchRule(ctx, r));
+    let rule: Rule | undefined;
+    for (const r of rules) {
+      if (matchRule(ctx, r)) {
+        rule = r;
+        break;
+      }
+    }
     if (!rule) break;
     if (++fires > RULE_LOOP_LIMIT) {
       throw new ProgramError(`rule loop: fired more than ${RULE_LOOP_LIMIT} times within one event (last: ${rule.name}, before it: ${last?.name ?? '-'})`, {

@@ -9,10 +9,16 @@
 import type { EngineEvent, World } from '../engine/index.js';
 
 class Hasher {
-  private a = 0x811c9dc5 | 0;
-  private b = 0x9e3779b9 | 0;
+  private a = 0;
+  private b = 0;
   private readonly f64 = new Float64Array(1);
   private readonly u32 = new Uint32Array(this.f64.buffer);
+
+  reset(): this {
+    this.a = 0x811c9dc5 | 0;
+    this.b = 0x9e3779b9 | 0;
+    return this;
+  }
 
   int(x: number): void {
     this.a = Math.imul(this.a ^ (x | 0), 0x01000193);
@@ -48,8 +54,11 @@ class Hasher {
 }
 
 /** The digest of the world after `ev`, chained to the previous event's digest. */
+// one hasher for all digests: digests are computed one at a time, and this saves allocations
+const shared = new Hasher();
+
 export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
-  const h = new Hasher();
+  const h = shared.reset();
   h.str(prev);
   h.num(ev.index);
   h.num(w.time);

@@ -12,19 +12,13 @@ import { replayEvent, type ReplayEvent } from './replay.js';
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor (default 4096). */
   readonly window?: number;
-  /** Events between keyframes (default 1024). */
+  /** Events between keyframes (default 256). */
   readonly keyframeInterval?: number;
-  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 1024). */
+  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 4096). */
   readonly maxKeyframes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 1024, maxKeyframes: 1024 } as const;
-
-interface Slot {
-  world: World;
-  /** The event that led to this world (null for the initial world). */
-  event: EngineEvent | null;
-}
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 256, maxKeyframes: 4096 } as const;
 
 export class History {
   /** One record per computed event, in order. */
@@ -38,9 +32,9 @@ export class History {
   private readonly keyframes = new Map<number, World>();
   private frontierWorld: World;
   private digest = GENESIS_DIGEST;
-  /** Worlds for events lo..lo+seg.length-1. */
+  /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
   private lo = 0;
-  private seg: Slot[];
+  private seg: World[];
   /** The frontier may not be extended past a stall or idle end. */
   private ended = false;
 
@@ -55,7 +49,7 @@ export class History {
     const w0 = engine.initial(seed);
     this.frontierWorld = w0;
     this.keyframes.set(0, w0);
-    this.seg = [{ world: w0, event: null }];
+    this.seg = [w0];
   }
 
   /** Events computed so far. */
@@ -128,11 +122,11 @@ export class History {
     return out;
   }
 
-  /** The world after `n` events (n ≤ frontier), recomputed from the nearest keyframe when not held. */
+  /** The world after `n` events (n ≤ frontier); held worlds are returned, others recomputed without moving the window. */
   worldAt(n: number): World {
     if (n === this.frontier) return this.frontierWorld;
     const i = n - this.lo;
-    if (i >= 0 && i < this.seg.length) return this.seg[i].world;
+    if (i >= 0 && i < this.seg.length) return this.seg[i];
     return this.replayTo(n).world;
   }
 
@@ -143,33 +137,46 @@ export class History {
   }
 
   /** Recomputes the world after n events (and the event that led to it) from the nearest keyframe before it. */
-  replayTo(n: number): Slot {
+  replayTo(n: number): { world: World; event: EngineEvent | null } {
     if (n === 0) return { world: this.keyframes.get(0)!, event: null };
     const [k, kw] = this.nearestKeyframe(n - 1);
     const r = this.engine.advance(kw, n - k);
     return { world: r.world, event: r.events[r.events.length - 1] ?? null };
   }
 
-  /** The slot (world and the event that led to it) after `n` events, placing the window there. */
-  slot(n: number): Slot {
-    const i = n - this.lo;
-    if (i >= 0 && i < this.seg.length) {
-      const s = this.seg[i];
-      if (s.event || n === 0) return s;
-    }
-    const s = this.replayTo(n);
-    this.lo = n;
-    this.seg = [s];
-    return s;
+  /**
+   * The event that led to world n (null for n = 0). Events are not kept with the worlds
+   * (they would double the history's memory); the last one asked for is cached.
+   */
+  eventAt(n: number): EngineEvent | null {
+    if (n === 0) return null;
+    if (this.cachedEvent?.n === n) return this.cachedEvent.event;
+    const i = n - 1 - this.lo;
+    const event = i >= 0 && i < this.seg.length ? this.engine.step(this.seg[i]).event : this.replayTo(n).event;
+    this.cachedEvent = { n, event };
+    return event;
   }
 
-  /** The slot after n+1 events, given the slot after n (the cursor); extends the frontier if needed. */
-  forward(n: number): Slot | null {
+  private cachedEvent?: { n: number; event: EngineEvent | null };
+
+  /** Places the window at world n (keeping it when n is already held) and returns that world. */
+  place(n: number): World {
+    const i = n - this.lo;
+    if (i >= 0 && i < this.seg.length) return this.seg[i];
+    const r = this.replayTo(n);
+    if (r.event) this.cachedEvent = { n, event: r.event };
+    this.lo = n;
+    this.seg = [r.world];
+    return r.world;
+  }
+
+  /** Moves from world n to world n+1, extending the frontier if needed; null at the end of the run. */
+  forward(n: number): World | null {
     const i = n + 1 - this.lo;
-    if (i >= 1 && i < this.seg.length && this.seg[i].event) return this.seg[i];
+    if (i >= 1 && i < this.seg.length) return this.seg[i];
     if (n + 1 > this.frontier && this.ended) return null;
-    const cur = this.slot(n);
-    const { world, event } = this.engine.step(cur.world);
+    const cur = this.place(n);
+    const { world, event } = this.engine.step(cur);
     if (!event) {
       this.ended = true;
       return null;
@@ -178,35 +185,34 @@ export class History {
       this.record(event, world);
       this.frontierWorld = world;
     }
-    const next = { world, event };
-    // the window holds consecutive worlds: keep the tail near the cursor
+    this.cachedEvent = { n: n + 1, event };
+    // the window holds consecutive worlds: keep the part up to the cursor and add the new one
     this.seg = this.seg.slice(0, n + 1 - this.lo);
-    this.seg.push(next);
+    this.seg.push(world);
     if (this.seg.length > this.window) {
       const drop = this.seg.length - this.window;
       this.seg = this.seg.slice(drop);
       this.lo += drop;
     }
-    return next;
+    return world;
   }
 
-  /** The slot after n−1 events, given the cursor at n; rebuilds the window backwards when needed. */
-  back(n: number): Slot | null {
+  /** Moves from world n to world n−1, rebuilding the window backwards when needed; null at the start. */
+  back(n: number): World | null {
     if (n <= 0) return null;
     const i = n - 1 - this.lo;
-    if (i >= 0 && i < this.seg.length && (this.seg[i].event || n - 1 === 0)) return this.seg[i];
+    if (i >= 0 && i < this.seg.length) return this.seg[i];
     // rebuild a window ending at the cursor: one batch to its start, then one produce per event
     const span = Math.min(n, Math.max(16, Math.floor(this.window / 4)));
     const start = n - span;
-    const slots: Slot[] = [this.replayTo(start)];
-    let w = slots[0].world;
+    const worlds: World[] = [this.replayTo(start).world];
+    let w = worlds[0];
     for (let k = start; k < n; k++) {
-      const s = this.engine.step(w);
-      slots.push({ world: s.world, event: s.event });
-      w = s.world;
+      w = this.engine.step(w).world;
+      worlds.push(w);
     }
     this.lo = start;
-    this.seg = slots;
+    this.seg = worlds;
     return this.seg[n - 1 - start];
   }
 }

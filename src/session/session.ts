@@ -89,12 +89,12 @@ export class Session {
 
   /** The world at the cursor. */
   world(): World {
-    return this.history.slot(this.cursorAt).world;
+    return this.history.place(this.cursorAt);
   }
 
   /** The event that led to the cursor's world (null at the start). */
   event(): EngineEvent | null {
-    return this.history.slot(this.cursorAt).event;
+    return this.history.eventAt(this.cursorAt);
   }
 
   /** Whether nothing can happen after the cursor's world, and why. */
@@ -136,7 +136,7 @@ export class Session {
     const target = Math.max(0, Math.floor(n));
     if (target > this.history.frontier) this.extendTo(target);
     this.cursorAt = Math.min(target, this.history.frontier);
-    this.history.slot(this.cursorAt);
+    this.history.place(this.cursorAt);
     this.lastStop =
       this.cursorAt < target
         ? { reason: this.ending() ?? 'idle', detail: `the run ends after ${this.cursorAt} events` }
@@ -159,7 +159,7 @@ export class Session {
       else hi = mid;
     }
     this.cursorAt = lo;
-    this.history.slot(lo);
+    this.history.place(lo);
     this.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${lo} events)` };
     return this.lastStop;
   }
@@ -227,12 +227,12 @@ export class Session {
     if (hit) {
       this.hitEvents.get(hit.bp.id)?.add(hit.at - 1);
       this.cursorAt = hit.at;
-      this.history.slot(hit.at);
+      this.history.place(hit.at);
       this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id} at event ${hit.at - 1}: ${hit.what}`, breakpoint: hit.bp.id };
       return this.lastStop;
     }
     this.cursorAt = at;
-    this.history.slot(at);
+    this.history.place(at);
     const end = this.ending();
     if (end) {
       const onStall = active.find((b) => b.kind === 'stall');
@@ -265,14 +265,14 @@ export class Session {
       if (last) {
         this.hitEvents.get(last.bp.id)?.add(last.at - 1);
         this.cursorAt = last.at;
-        this.history.slot(last.at);
+        this.history.place(last.at);
         this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${last.bp.id} at event ${last.at - 1}: ${last.what}`, breakpoint: last.bp.id };
         return this.lastStop;
       }
       hiAt = from;
     }
     this.cursorAt = 0;
-    this.history.slot(0);
+    this.history.place(0);
     this.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; at the start of the run' };
     return this.lastStop;
   }

@@ -4,6 +4,9 @@ import { printLines, type BenchLine } from './harness.js';
 const modules: Record<string, () => Promise<{ default: () => Promise<BenchLine[]> }>> = {
   'quantum kernel vs mathjs': () => import('./kernel.bench.js'),
   'expression evaluation': () => import('./expr.bench.js'),
+  'debugger frame': () => import('./render.bench.js'),
+  'engine': () => import('./engine.bench.js'),
+  'session': () => import('./session.bench.js'),
 };
 
 const only = process.argv[2];

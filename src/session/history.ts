@@ -14,11 +14,27 @@ export interface HistoryOptions {
   readonly window?: number;
   /** Events between keyframes (default 256). */
   readonly keyframeInterval?: number;
-  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 4096). */
+  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 16384). */
   readonly maxKeyframes?: number;
+  /** Estimated bytes the keyframes may take before they are thinned the same way (default 256 MiB). */
+  readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 256, maxKeyframes: 4096 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 128, maxKeyframes: 16384, keyframeBytes: 256 * 1024 * 1024 } as const;
+
+/** A rough size of a world on its own (what a keyframe costs), from what it holds. */
+export function estimateWorldBytes(w: World): number {
+  let bytes = 2048;
+  for (const id in w.clusters) bytes += w.clusters[id].rho.data.byteLength + 200;
+  for (const id in w.nodes) {
+    const n = w.nodes[id];
+    bytes += 300 + 250 * n.inbox.length;
+    for (const q in n.pairs) bytes += 250;
+  }
+  bytes += 150 * Object.keys(w.qubits).length + 120 * w.queue.length + 300 * Object.keys(w.inflight).length;
+  bytes += 200 * Object.keys(w.links).length + 150 * w.delivered.length;
+  return bytes;
+}
 
 export class History {
   /** One record per computed event, in order. */
@@ -29,7 +45,9 @@ export class History {
   private readonly window: number;
   private interval: number;
   private readonly maxKeyframes: number;
-  private readonly keyframes = new Map<number, World>();
+  private readonly keyframeBudget: number;
+  private keyframeTotal = 0;
+  private readonly keyframes = new Map<number, { world: World; bytes: number }>();
   private frontierWorld: World;
   private digest = GENESIS_DIGEST;
   /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
@@ -46,9 +64,10 @@ export class History {
     this.window = Math.max(2, opts.window ?? HISTORY_DEFAULTS.window);
     this.interval = Math.max(1, opts.keyframeInterval ?? HISTORY_DEFAULTS.keyframeInterval);
     this.maxKeyframes = Math.max(2, opts.maxKeyframes ?? HISTORY_DEFAULTS.maxKeyframes);
+    this.keyframeBudget = opts.keyframeBytes ?? HISTORY_DEFAULTS.keyframeBytes;
     const w0 = engine.initial(seed);
     this.frontierWorld = w0;
-    this.keyframes.set(0, w0);
+    this.keyframes.set(0, { world: w0, bytes: 0 });
     this.seg = [w0];
   }
 
@@ -77,12 +96,25 @@ export class History {
     return [this.lo, this.lo + this.seg.length - 1];
   }
 
+  /** Estimated bytes held by keyframes. */
+  get keyframeBytes(): number {
+    return this.keyframeTotal;
+  }
+
   private remember(n: number, w: World): void {
     if (n % this.interval !== 0 || this.keyframes.has(n)) return;
-    this.keyframes.set(n, w);
-    if (this.keyframes.size > this.maxKeyframes) {
+    const bytes = estimateWorldBytes(w);
+    this.keyframes.set(n, { world: w, bytes });
+    this.keyframeTotal += bytes;
+    while (this.keyframes.size > this.maxKeyframes || (this.keyframeTotal > this.keyframeBudget && this.keyframes.size > 2)) {
+      // thin out: keep every other keyframe and double the interval
       this.interval *= 2;
-      for (const k of [...this.keyframes.keys()]) if (k % this.interval !== 0) this.keyframes.delete(k);
+      for (const [k, kf] of [...this.keyframes]) {
+        if (k % this.interval !== 0) {
+          this.keyframes.delete(k);
+          this.keyframeTotal -= kf.bytes;
+        }
+      }
     }
   }
 
@@ -131,14 +163,17 @@ export class History {
   }
 
   private nearestKeyframe(n: number): [number, World] {
-    let best = 0;
-    for (const k of this.keyframes.keys()) if (k <= n && k > best) best = k;
-    return [best, this.keyframes.get(best)!];
+    // keyframes sit at multiples of the interval (older thinning only removed some), so look there first
+    for (let k = n - (n % this.interval); k > 0; k -= this.interval) {
+      const kf = this.keyframes.get(k);
+      if (kf) return [k, kf.world];
+    }
+    return [0, this.keyframes.get(0)!.world];
   }
 
   /** Recomputes the world after n events (and the event that led to it) from the nearest keyframe before it. */
   replayTo(n: number): { world: World; event: EngineEvent | null } {
-    if (n === 0) return { world: this.keyframes.get(0)!, event: null };
+    if (n === 0) return { world: this.keyframes.get(0)!.world, event: null };
     const [k, kw] = this.nearestKeyframe(n - 1);
     const r = this.engine.advance(kw, n - k);
     return { world: r.world, event: r.events[r.events.length - 1] ?? null };

@@ -13,25 +13,25 @@ export interface FrameViewProps {
 export function FrameView({ frame, colour }: FrameViewProps) {
   const body = frame.rows - frame.top.length - frame.bottom.length;
   return (
-    <Box flexDirection="column" width={frame.cols} height={frame.rows} overflow="hidden">
+    <Box flexDirection="column" width={frame.cols} height={frame.rows}>
       {frame.top.map((l, i) => (
         <LineText key={`t${i}`} line={l} colour={colour} />
       ))}
       {frame.overlay ? (
-        <Box flexDirection="column" height={body} overflow="hidden">
+        <Box flexDirection="column" height={body}>
           {frame.overlay.map((l, i) => (
             <LineText key={`o${i}`} line={l} colour={colour} />
           ))}
         </Box>
       ) : (
-        <Box flexDirection="row" height={body} overflow="hidden">
+        <Box flexDirection="row" height={body}>
           {frame.columns.map((col, i) => (
             <Box
               key={i}
               flexDirection="column"
               width={col.width}
               height={body}
-              overflow="hidden"
+             
               borderStyle={col.divider ? 'single' : undefined}
               borderTop={false}
               borderRight={false}

@@ -12,7 +12,7 @@ export interface PaneProps {
 /** Renders a pane model; an unchanged model (same object) is not re-rendered. */
 export const Pane = memo(function Pane({ pane, colour }: PaneProps) {
   return (
-    <Box flexDirection="column" width={pane.width} height={pane.height} overflow="hidden">
+    <Box flexDirection="column" width={pane.width} height={pane.height}>
       <LineText line={pane.title} colour={colour} />
       {pane.body.map((l, i) => (
         <LineText key={i} line={l} colour={colour} />

@@ -109,11 +109,22 @@ export function timelineView(inp: TimelineInput, cols: number, rows: number): Li
   // messages that cross the window: sent in it or shortly before, plus those still in flight
   const flights = new Map<string, Flight>();
   const arrivedAt = new Map<string, number>();
-  for (let i = Math.max(0, start - LOOKBACK); i <= end; i++) {
+  const take = (ev: EngineEvent, i: number) => {
+    for (const s of ev.sends) if (!s.dropped) flights.set(s.id, { from: s.from, to: s.to, sent: s.sent, arrives: s.arrives, sentAt: i });
+  };
+  for (let i = start; i <= end; i++) {
     const ev = inp.log.get(i);
     if (!ev) continue;
-    for (const s of ev.sends) if (!s.dropped) flights.set(s.id, { from: s.from, to: s.to, sent: s.sent, arrives: s.arrives, sentAt: i });
+    take(ev, i);
     if (ev.message) arrivedAt.set(ev.message, i);
+  }
+  // look back only as far as needed to find the senders of messages that arrive in the window
+  let missing = [...arrivedAt.keys()].filter((id) => !flights.has(id)).length;
+  for (let i = start - 1; i >= Math.max(0, start - LOOKBACK) && missing > 0; i--) {
+    const ev = inp.log.get(i);
+    if (!ev) continue;
+    for (const snd of ev.sends) if (arrivedAt.has(snd.id) && !flights.has(snd.id)) missing--;
+    take(ev, i);
   }
   if (inp.back === 0) {
     for (const m of Object.values(inp.world.inflight)) {

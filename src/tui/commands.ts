@@ -29,6 +29,8 @@ export interface CommandTarget {
   /** Writes the replay file; throws when the debugger was opened without a file system. */
   saveReplay(path: string): void;
   setAutoplay(rate: number | null): void;
+  /** Starts a continue that runs in slices and reports when it stops. */
+  continueForward(): void;
   openList(): void;
   openHelp(): void;
   quit(): void;
@@ -92,7 +94,10 @@ export const COMMANDS: readonly CommandDef[] = [
     while (done < n && t.session.stepBack()) done++;
     return t.moved();
   } },
-  { word: 'continue', args: '', does: 'run forward to the next breakpoint hit, stall or end', complete: 'none', run: (t) => t.moved(t.session.continue()) },
+  { word: 'continue', args: '', does: 'run forward to the next breakpoint hit, stall or end', complete: 'none', run: (t) => {
+    t.continueForward();
+    return 'running forward…';
+  } },
   { word: 'rewind', args: '', does: 'run back to the previous breakpoint hit, or the start', complete: 'none', run: (t) => t.moved(t.session.reverseContinue()) },
   { word: 'break', args: 'EXPR | on fire SITE.RULE | on send KIND | on deliver | on discard | on stall', does: 'add a breakpoint', complete: 'breakpoint', run: (t, r) => {
     if (!r) throw new CommandError('break needs a condition or an event form', 'write e.g. "break on fire mill.swap" or "break delivered() >= 2"');

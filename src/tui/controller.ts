@@ -32,6 +32,9 @@ export interface ControllerOptions {
 
 export type Mode = 'normal' | 'command' | 'help' | 'list';
 
+/** Events one continue may run, in slices, before it pauses and says so. */
+export const CONTINUE_MAX = 1_000_000;
+
 export interface Note {
   readonly lines: readonly string[];
   readonly tone: Tone;
@@ -155,7 +158,7 @@ export class Controller implements CommandTarget {
     return s === 'stall' ? 'bad' : s === 'breakpoint' ? 'accent' : s === 'idle' || s === 'limit' ? 'warn' : 'plain';
   }
 
-  /** Starts a continue or reverse-continue after a "running…" frame, so the screen says what is going on. */
+  /** Starts a reverse-continue (or any one long call) after a "running…" frame, so the screen says what is going on. */
   private runLong(label: string, fn: () => SessionStop): void {
     if (this.busy) return;
     this.busy = label;
@@ -169,6 +172,43 @@ export class Controller implements CommandTarget {
         }
       });
     });
+  }
+
+  private cancelRun = false;
+
+  /**
+   * Continues in slices of the session's continue limit, handing the event loop back
+   * between slices, so the count on screen moves and Esc or Ctrl+C stop the run.
+   */
+  continueForward(): void {
+    if (this.busy) return;
+    const s = this.session;
+    const from = s.cursor;
+    this.cancelRun = false;
+    const slice = () => {
+      this.guarded(() => {
+        let stop: SessionStop;
+        try {
+          stop = s.continue();
+        } catch (e) {
+          this.busy = undefined;
+          throw e;
+        }
+        const ran = s.cursor - from;
+        if (stop.reason === 'limit' && !this.cancelRun && !this.ended && ran < CONTINUE_MAX) {
+          this.busy = `running forward… ${ran} events so far (Esc stops)`;
+          this.defer(slice);
+          return;
+        }
+        this.busy = undefined;
+        const why = this.cancelRun ? `stopped by Esc after ${ran} events` : stop.reason === 'limit' ? `ran ${ran} events without a breakpoint hit; Shift+→ goes on` : undefined;
+        this.move(() => stop);
+        if (why) this.say(`at event #${s.cursor - 1}: ${why}`, 'warn');
+      });
+    };
+    this.busy = 'running forward…';
+    this.changed();
+    this.defer(slice);
   }
 
   /** One autoplay tick: a step, pausing at the end of the run. */
@@ -248,6 +288,7 @@ export class Controller implements CommandTarget {
     if (this.ended) return;
     if (this.busy) {
       if (input === 'c' && key.ctrl) this.quit();
+      if (key.escape) this.cancelRun = true;
       return;
     }
     if (this.mode === 'command') return this.commandKey(input, key);
@@ -273,7 +314,7 @@ export class Controller implements CommandTarget {
       case 'back':
         return this.guarded(() => this.move(() => s.stepBack(), true));
       case 'continue':
-        return this.runLong('running forward…', () => s.continue());
+        return this.continueForward();
       case 'reverse':
         return this.runLong('running back…', () => s.reverseContinue());
       case 'first':

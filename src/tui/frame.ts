@@ -125,7 +125,7 @@ function bottomRows(c: Controller, cols: number): Line[] {
     lines.push([{ text: '› ', tone: 'accent' }, { text: c.command.text, tone: 'strong' }, { text: '█', tone: 'plain' }]);
     return lines;
   }
-  if (c.busy) return [[{ text: `${c.busy} the screen updates when it stops (Ctrl+C quits)`, tone: 'warn' }]];
+  if (c.busy) return [[{ text: `${c.busy} · Esc stops · Ctrl+C quits`, tone: 'warn' }]];
   if (c.note) return c.note.lines.slice(0, 2).map((l): Line => [{ text: l, tone: c.note!.tone }]);
   return [[{ text: KEY_HINTS, tone: 'dim' }]];
 }

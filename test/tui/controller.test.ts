@@ -6,6 +6,9 @@ import { KEYS, keyAction } from '../../src/tui/keys.js';
 import type { Key } from 'ink';
 import { DISAGREE_NET, noiseWith, purificationNet, SWAP_NET } from '../engine/scenarios.js';
 import { controllerFor } from './helpers.js';
+import { Session } from '../../src/session/session.js';
+import { Controller } from '../../src/tui/controller.js';
+import { engineFrom } from '../engine/scenarios.js';
 
 const SWAP_NOISE = noiseWith('{werner: 0.9}', '    success: 0.3\n  memory: {t2: 1 s}');
 
@@ -145,6 +148,23 @@ describe('the controller', () => {
     expect(c.session.ending()).toBe('stall');
     expect(c.autoplay?.playing).toBe(false);
     expect(c.note?.lines[0]).toMatch(/stalled/);
+  });
+
+  it('continues in slices that keep the screen live, and Esc stops between slices', () => {
+    const queue: (() => void)[] = [];
+    const c = new Controller(new Session(engineFrom(SWAP_NET, SWAP_NOISE), { continueLimit: 50 }), { defer: (fn) => void queue.push(fn) });
+    c.act('continue');
+    expect(c.busy).toBe('running forward…');
+    queue.shift()!();
+    expect(c.session.cursor).toBe(50);
+    expect(c.busy).toMatch(/50 events so far/);
+    queue.shift()!();
+    expect(c.session.cursor).toBe(100);
+    c.handleKey('', key({ escape: true }));
+    queue.shift()!();
+    expect(c.busy).toBeUndefined();
+    expect(queue).toHaveLength(0);
+    expect(c.note?.lines[0]).toMatch(/stopped by Esc after 150 events/);
   });
 
   it('turns a crash into an exit with the error, not a note', () => {

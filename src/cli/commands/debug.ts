@@ -48,7 +48,8 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
 
 /** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
 export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
-  const session = new Session(engine);
+  // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
+  const session = new Session(engine, { continueLimit: 20_000 });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(

@@ -13,7 +13,7 @@ const STOP_WORDS: Record<string, string> = {
   breakpoint: 'stopped at a breakpoint',
   stall: 'STALLED',
   idle: 'finished',
-  limit: 'paused at the continue limit',
+  limit: 'paused: no breakpoint hit yet',
 };
 
 /** The status line's segments. */
@@ -50,7 +50,7 @@ export function statusLine(session: Session, autoplay: { rate: number; playing: 
     word = 'the run ends here';
     tone = 'warn';
   }
-  const detail = stop.reason === 'breakpoint' || stop.reason === 'stall' || stop.reason === 'limit' || stop.reason === 'idle' ? `: ${stop.detail}` : '';
+  const detail = stop.reason === 'breakpoint' || stop.reason === 'stall' || stop.reason === 'idle' ? `: ${stop.detail}` : '';
   segs.push({ text: `${word}${detail}`, tone });
   return segs;
 }

@@ -28,8 +28,7 @@ export function estimateWorldBytes(w: World): number {
   for (const id in w.clusters) bytes += w.clusters[id].rho.data.byteLength + 200;
   for (const id in w.nodes) {
     const n = w.nodes[id];
-    bytes += 300 + 250 * n.inbox.length;
-    for (const q in n.pairs) bytes += 250;
+    bytes += 300 + 250 * n.inbox.length + 250 * Object.keys(n.pairs).length;
   }
   bytes += 150 * Object.keys(w.qubits).length + 120 * w.queue.length + 300 * Object.keys(w.inflight).length;
   bytes += 200 * Object.keys(w.links).length + 150 * w.delivered.length;

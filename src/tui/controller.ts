@@ -378,8 +378,10 @@ export class Controller implements CommandTarget {
     } else if (input === 'c' && key.ctrl) {
       return this.quit();
     } else if (input && !key.ctrl && !key.meta) {
-      // typed or pasted text; control characters are dropped
-      c.text += [...input].filter((ch) => ch >= ' ' && ch !== '\u007f').join('');
+      // typed or pasted text; control characters are dropped, and a pasted line break runs the line
+      const nl = input.search(/[\r\n]/);
+      c.text += [...(nl < 0 ? input : input.slice(0, nl))].filter((ch) => ch >= ' ' && ch !== '\u007f').join('');
+      if (nl >= 0) return this.submit();
     }
     this.changed();
   }

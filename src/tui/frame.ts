@@ -134,7 +134,10 @@ function topRows(c: Controller, cols: number): Line[] {
   const s = c.session;
   const top: Line[] = [statusLine(s, c.autoplay, c.busy, cols)];
   if (c.autoplay) {
-    const said = wrap(narrate(s.event()), cols - 2).slice(0, 2);
+    // teaching mode: the narration on top, up to three rows, cut with … beyond that
+    const all = wrap(narrate(s.event()), cols - 3);
+    const said = all.slice(0, 3);
+    if (all.length > 3) said[2] = `${said[2]} …`;
     for (const l of said) top.push([{ text: pad(` ${l}`, cols), tone: 'select' }]);
   }
   const ws = s.watches().slice(0, 3);

@@ -47,12 +47,21 @@ export function sha256(text: string): string {
 
 /** JSON with object keys sorted at every level, so the checksum ignores layout and key order. */
 export function canonicalJson(v: unknown): string {
-  if (Array.isArray(v)) return `[${v.map(canonicalJson).join(',')}]`;
+  return JSON.stringify(sortedKeys(v));
+}
+
+// copies with keys inserted in sorted order, then one native stringify: much faster than
+// building the string by hand for files with a million events
+function sortedKeys(v: unknown): unknown {
+  if (Array.isArray(v)) return v.map(sortedKeys);
   if (v !== null && typeof v === 'object') {
-    const keys = Object.keys(v).sort();
-    return `{${keys.map((k) => `${JSON.stringify(k)}:${canonicalJson((v as Record<string, unknown>)[k])}`).join(',')}}`;
+    const o = v as Record<string, unknown>;
+    // no prototype, so a "__proto__" key in a file stays an ordinary key
+    const out = Object.create(null) as Record<string, unknown>;
+    for (const k of Object.keys(o).sort()) if (o[k] !== undefined) out[k] = sortedKeys(o[k]);
+    return out;
   }
-  return JSON.stringify(v);
+  return v;
 }
 
 /** The checksum of a replay object: SHA-256 of the canonical JSON of everything but `checksum`. */

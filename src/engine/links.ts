@@ -47,7 +47,7 @@ export function herald(net: Net, w: World, link: string, emitted: number): strin
     w.links[link].used[node]++;
   }
   w.links[link].generating = false;
-  w.generated[link] = (w.generated[link] ?? 0) + 1;
+  w.links[link].generated++;
   maybeGenerate(net, w, link, w.time);
   return id;
 }

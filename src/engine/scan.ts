@@ -74,8 +74,7 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
     if (used.size > 0) state.inbox = state.inbox.filter((m) => !used.has(m.id));
     runSteps({ w, node, scope, nodeIds: net.nodeSet, net, rule, ev, fire }, rule.do);
     ev.fires.push(fire);
-    const byNode = (w.fired[node] ??= {});
-    byNode[rule.name] = (byNode[rule.name] ?? 0) + 1;
+    state.fired[rule.name] = (state.fired[rule.name] ?? 0) + 1;
     if (scope.now > w.time) state.busyUntil = scope.now;
   }
   scheduleAgeWakes(net, w, node, rules);

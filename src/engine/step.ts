@@ -32,14 +32,11 @@ export function initialWorld(net: Net, seed: number): World {
     halves: {},
     delivered: [],
     lost: [],
-    fired: {},
-    generated: {},
     counters: { qubit: 0, cluster: 0, pair: 0, message: 0, sent: 0, arrived: 0, dropped: 0, faultHits: net.noise.faults.map(() => 0) },
   };
-  for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: {}, inbox: [], arrivals: 0 };
+  for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: {}, inbox: [], arrivals: 0, fired: {} };
   for (const [id, info] of net.links) {
-    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 } };
-    w.generated[id] = 0;
+    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0 };
   }
   for (const id of [...net.links.keys()].sort()) maybeGenerate(net, w, id, 0);
   return w;

@@ -28,16 +28,15 @@ export function thaw(w: World): World {
       pairs: mapValues(n.pairs, (p) => ({ ...p, notes: { ...p.notes } })),
       inbox: n.inbox.slice(),
       arrivals: n.arrivals,
+      fired: { ...n.fired },
     })),
-    links: mapValues(w.links, (l) => ({ id: l.id, generating: l.generating, used: { ...l.used } })),
+    links: mapValues(w.links, (l) => ({ id: l.id, generating: l.generating, used: { ...l.used }, generated: l.generated })),
     qubits: mapValues(w.qubits, (q) => ({ ...q })),
     clusters: mapValues(w.clusters, (c) => ({ id: c.id, qubits: c.qubits, rho: c.rho })),
     inflight: { ...w.inflight },
     halves: { ...w.halves },
     delivered: w.delivered.slice(),
     lost: w.lost.slice(),
-    fired: mapValues(w.fired, (r) => ({ ...r })),
-    generated: { ...w.generated },
     counters: { ...w.counters, faultHits: w.counters.faultHits.slice() },
   };
 }

@@ -76,6 +76,8 @@ export interface NodeState {
   inbox: Message[];
   /** Arrivals so far, for the arrival order of halves. */
   arrivals: number;
+  /** Times each rule of this node has fired (kept per node so a fire copies only this node). */
+  fired: Record<string, number>;
 }
 
 export interface LinkState {
@@ -84,6 +86,8 @@ export interface LinkState {
   generating: boolean;
   /** Slots in use at each end. */
   used: Record<string, number>;
+  /** Pairs made so far. */
+  generated: number;
 }
 
 /** The true state of a pair whose two halves were both delivered (FORMAT.md §4). */
@@ -131,8 +135,6 @@ export interface World {
   delivered: DeliveryRecord[];
   /** The most recent lost messages (at most LOST_KEPT), for explanations. */
   lost: SendRecord[];
-  fired: Record<string, Record<string, number>>;
-  generated: Record<string, number>;
   counters: Counters;
 }
 

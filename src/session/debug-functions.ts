@@ -102,7 +102,7 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
       if (!(net.rules.get(at) ?? []).some((r) => r.name === rule)) {
         throw new Error(`fired: ${at} has no rule "${rule}" (rules: ${(net.rules.get(at) ?? []).map((r) => r.name).join(', ') || 'none'})`);
       }
-      return w.fired[at]?.[rule] ?? 0;
+      return w.nodes[at].fired[rule] ?? 0;
     },
     stalled: () => !hasNext(w) && quiescence(w) === 'stall',
     time: () => w.time,

@@ -45,10 +45,10 @@ export function summarize(
   for (const node of net.nodeIds) {
     const rules = net.rules.get(node) ?? [];
     if (rules.length === 0) continue;
-    fired[node] = Object.fromEntries(rules.map((r) => [r.name, w.fired[node]?.[r.name] ?? 0]));
+    fired[node] = Object.fromEntries(rules.map((r) => [r.name, w.nodes[node].fired[r.name] ?? 0]));
   }
   const generated: Record<string, number> = {};
-  for (const id of [...net.links.keys()].sort()) generated[id] = w.generated[id] ?? 0;
+  for (const id of [...net.links.keys()].sort()) generated[id] = w.links[id].generated;
   return {
     format: 'bellstep/run-summary@1',
     seed,

@@ -17,6 +17,7 @@ import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
 import { pairValue } from './scope.js';
+import { addDelivery } from './delivered.js';
 
 interface BodyContext extends MatchContext {
   readonly net: Net;
@@ -85,7 +86,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const rho = twoQubitState(ctx.net, w, a, b, t);
   const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
   const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
-  w.delivered.push(record);
+  addDelivery(w, record);
   ctx.ev.deliveries.push(record);
   traceOut(w, a);
   traceOut(w, b);

@@ -9,3 +9,4 @@ export { programFunctions, pairValue, messageValue } from './scope.js';
 export { RULE_LOOP_LIMIT } from './scan.js';
 export { seedRng, drawUniform, geometricAttempts, mixSeed, SEED_WARMUP } from './rng.js';
 export type * from './types.js';
+export { addDelivery, deliveredCount, deliveries, recentDeliveries, type DeliveredCell } from './delivered.js';

@@ -30,7 +30,7 @@ export function initialWorld(net: Net, seed: number): World {
     clusters: {},
     inflight: {},
     halves: {},
-    delivered: [],
+    delivered: null,
     lost: [],
     counters: { qubit: 0, cluster: 0, pair: 0, message: 0, sent: 0, arrived: 0, dropped: 0, faultHits: net.noise.faults.map(() => 0) },
   };

@@ -35,7 +35,7 @@ export function thaw(w: World): World {
     clusters: mapValues(w.clusters, (c) => ({ id: c.id, qubits: c.qubits, rho: c.rho })),
     inflight: { ...w.inflight },
     halves: { ...w.halves },
-    delivered: w.delivered.slice(),
+    delivered: w.delivered,
     lost: w.lost.slice(),
     counters: { ...w.counters, faultHits: w.counters.faultHits.slice() },
   };

@@ -5,6 +5,7 @@
  */
 import type { Value } from '../expr/types.js';
 import type { Rho } from '../quantum/index.js';
+import type { DeliveredCell } from './delivered.js';
 
 /** xoroshiro128+ state (pure-rand), kept inside the world so runs are reproducible. */
 export type RngState = [number, number, number, number];
@@ -132,7 +133,8 @@ export interface World {
   clusters: Record<string, Cluster>;
   inflight: Record<string, Message>;
   halves: Record<string, HalfDelivery>;
-  delivered: DeliveryRecord[];
+  /** Delivered pairs, newest first, as an immutable list (see delivered.ts). */
+  delivered: DeliveredCell | null;
   /** The most recent lost messages (at most LOST_KEPT), for explanations. */
   lost: SendRecord[];
   counters: Counters;

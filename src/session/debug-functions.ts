@@ -5,7 +5,7 @@
  */
 import { baseFunctions } from '../expr/index.js';
 import type { ExprFunction, Scope, Value } from '../expr/types.js';
-import { hasNext, joinIds, quiescence, twoQubitState, type Net, type World } from '../engine/index.js';
+import { deliveredCount, hasNext, joinIds, quiescence, recentDeliveries, twoQubitState, type DeliveryRecord, type Net, type World } from '../engine/index.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 
 export const DEBUG_FUNCTION_NAMES = [
@@ -52,7 +52,11 @@ export function pairTruth(net: Net, w: World, id: string): { fidelity: number; b
     const rho = twoQubitState(net, w, held[0], held[1], w.time);
     return { fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
   }
-  const d = w.delivered.find((r) => r.id === id);
+  let d: DeliveryRecord | undefined;
+  for (const r of recentDeliveries(w)) if (r.id === id) {
+    d = r;
+    break;
+  }
   return d ? { fidelity: d.fidelity, bell: [...d.bell] as [number, number, number, number] } : undefined;
 }
 
@@ -91,10 +95,13 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
     delivered: (args) => {
       const a = node(net, 'delivered', args[0], 'A');
       const b = node(net, 'delivered', args[1], 'B');
-      return w.delivered.filter((r) => (a === undefined || r.ends.includes(a)) && (b === undefined || r.ends.includes(b))).length;
+      if (a === undefined && b === undefined) return deliveredCount(w);
+      let n = 0;
+      for (const r of recentDeliveries(w)) if ((a === undefined || r.ends.includes(a)) && (b === undefined || r.ends.includes(b))) n++;
+      return n;
     },
     // the minimum over no deliveries is 1, the identity for a minimum of fidelities
-    min_fidelity_delivered: () => w.delivered.reduce((m, r) => Math.min(m, r.fidelity), 1),
+    min_fidelity_delivered: () => w.delivered?.minFidelity ?? 1,
     fired: (args) => {
       const at = node(net, 'fired', args[0], 'NODE');
       const rule = str('fired', args[1], 'RULE');

@@ -65,7 +65,7 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
   h.num(w.seq);
   for (const x of w.rng) h.int(x);
   const c = w.counters;
-  for (const x of [c.qubit, c.cluster, c.pair, c.message, c.sent, c.arrived, c.dropped, w.delivered.length, w.queue.length]) h.num(x);
+  for (const x of [c.qubit, c.cluster, c.pair, c.message, c.sent, c.arrived, c.dropped, w.delivered?.count ?? 0, w.queue.length]) h.num(x);
   h.str(ev.summary);
   const clusters = new Set<string>();
   const links = new Set<string>();

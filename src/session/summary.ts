@@ -2,7 +2,7 @@
  * The run summary of FORMAT.md §6: exactly its keys, no wall-clock figures and no paths,
  * so the same inputs and seed give a byte-identical summary.
  */
-import type { Net, StallEntry, World } from '../engine/index.js';
+import { deliveries, type Net, type StallEntry, type World } from '../engine/index.js';
 import type { Value } from '../expr/types.js';
 
 export type StopReason = 'until' | 'events' | 'idle' | 'stall' | 'breakpoint';
@@ -55,7 +55,7 @@ export function summarize(
     events: w.events,
     time_ns: w.time,
     stop,
-    delivered: w.delivered.map((d) => ({ id: d.id, ends: [d.ends[0], d.ends[1]], time_ns: d.time_ns, fidelity: d.fidelity, bell: [d.bell[0], d.bell[1], d.bell[2], d.bell[3]] })),
+    delivered: deliveries(w).map((d) => ({ id: d.id, ends: [d.ends[0], d.ends[1]], time_ns: d.time_ns, fidelity: d.fidelity, bell: [d.bell[0], d.bell[1], d.bell[2], d.bell[3]] })),
     fired,
     messages: { sent: w.counters.sent, delivered: w.counters.arrived, dropped: w.counters.dropped },
     generated,

@@ -8,6 +8,8 @@
  */
 import type { EngineEvent, World } from '../engine/index.js';
 
+const HEX = Array.from({ length: 256 }, (_, i) => i.toString(16).padStart(2, '0'));
+
 class Hasher {
   private a = 0;
   private b = 0;
@@ -48,8 +50,12 @@ class Hasher {
   }
 
   hex(): string {
-    const h = (x: number) => (x >>> 0).toString(16).padStart(8, '0');
-    return h(this.a) + h(this.b);
+    const a = this.a;
+    const b = this.b;
+    return (
+      HEX[(a >>> 24) & 255] + HEX[(a >>> 16) & 255] + HEX[(a >>> 8) & 255] + HEX[a & 255] +
+      HEX[(b >>> 24) & 255] + HEX[(b >>> 16) & 255] + HEX[(b >>> 8) & 255] + HEX[b & 255]
+    );
   }
 }
 
@@ -75,7 +81,8 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
     h.num(n.busyUntil);
     h.num(n.nextWake ?? -1);
     h.num(n.arrivals);
-    for (const q of Object.keys(n.pairs).sort()) {
+    // key order is insertion order, which a deterministic run reproduces exactly
+    for (const q in n.pairs) {
       const p = n.pairs[q];
       h.str(q);
       h.str(p.id);
@@ -85,8 +92,10 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
       h.num(p.order);
       h.str(p.link);
       links.add(p.link);
-      const notes = Object.keys(p.notes);
-      if (notes.length) h.str(JSON.stringify(notes.sort().map((k) => [k, p.notes[k]])));
+      for (const k in p.notes) {
+        h.str(k);
+        h.str(JSON.stringify(p.notes[k]));
+      }
       const qs = w.qubits[q];
       if (qs) {
         h.num(qs.decayedTo);

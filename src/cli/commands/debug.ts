@@ -10,7 +10,8 @@ import { Session } from '../../session/session.js';
 import { engineFromReplay } from '../../session/verify.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import type { CliIo } from '../io.js';
-import { loadFiles, many, parseSeed, readInput } from '../inputs.js';
+import { loadFiles, many, parseCount, parseSeed, readInput } from '../inputs.js';
+import { HISTORY_DEFAULTS, type HistoryOptions } from '../../session/history.js';
 import { EXIT, type CommandSpec, type OptionSpec } from '../spec.js';
 
 export interface OpenOptions {
@@ -22,6 +23,15 @@ export interface OpenOptions {
   readonly autoplay?: number;
   /** The headless command that does the same job, for the no-terminal message. */
   readonly runHint: string;
+  /** History bounds from --window and --history-mb. */
+  readonly history?: HistoryOptions;
+}
+
+/** Parses --window and --history-mb into history bounds (defaults in session/history.ts). */
+export function parseHistory(opts: Readonly<Record<string, unknown>>): HistoryOptions {
+  const window = parseCount(opts.window, '--window');
+  const mb = parseCount(opts.historyMb, '--history-mb');
+  return { window, keyframeBytes: mb === undefined ? undefined : mb * 1024 * 1024 };
 }
 
 /** Parses `--autoplay`: events per second, more than 0 and at most 100. */
@@ -49,7 +59,7 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
 /** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
 export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
   // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
-  const session = new Session(engine, { continueLimit: 20_000 });
+  const session = new Session(engine, { continueLimit: 20_000, ...opts.history });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(
@@ -83,6 +93,8 @@ export const DEBUG_OPTIONS: readonly OptionSpec[] = [
   { flags: '--replay <R.json>', description: 'open a replay file: its embedded inputs, seed and breakpoints' },
   { flags: '--at <I>', description: 'with --replay: open with the cursor on event I' },
   { flags: '--autoplay <RATE>', description: 'teaching mode: step RATE events per second, narrating each (Space pauses)' },
+  { flags: '--window <N>', description: `worlds kept one per event near the cursor (default ${HISTORY_DEFAULTS.window})` },
+  { flags: '--history-mb <MB>', description: `memory for keyframes further back; beyond it they are thinned (default ${HISTORY_DEFAULTS.keyframeBytes / 1024 / 1024})` },
 ];
 
 export const debugCommand: CommandSpec = {
@@ -107,7 +119,7 @@ export const debugCommand: CommandSpec = {
       if (at !== undefined && at >= replay.events.length) {
         throw new InputError({ code: 'usage', field: '--at', message: `the replay holds events 0 to ${replay.events.length - 1}, not ${at}`, fix: `write --at ${Math.max(0, replay.events.length - 1)} or less` });
       }
-      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify` });
+      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts) });
     }
     if (netPath === undefined) {
       throw new InputError({ code: 'usage', field: 'NET.yaml', message: 'debug needs a program set or --replay', fix: 'write e.g. bellstep debug swap.net.yaml --noise swap.noise.yaml' });
@@ -116,6 +128,6 @@ export const debugCommand: CommandSpec = {
     const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
     const engine = new Engine(programSet, noise);
     const hint = ['bellstep run', netPath, ...(opts.noise ? ['--noise', String(opts.noise)] : []), ...(seedFlag !== undefined ? ['--seed', String(seedFlag)] : []), ...breaks.map((b) => `--break "${b}"`)].join(' ');
-    return openDebugger(io, engine, { breaks, autoplay, runHint: hint });
+    return openDebugger(io, engine, { breaks, autoplay, runHint: hint, history: parseHistory(opts) });
   },
 };

@@ -70,16 +70,21 @@ export function truthy(v: Value, expr: Expr, node: string, rule: string): boolea
 export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<string>): PairRecord[] {
   const now = ctx.scope.now;
   const out: PairRecord[] = [];
-  for (const rec of Object.values(ctx.w.nodes[ctx.node].pairs)) {
+  const pairs = ctx.w.nodes[ctx.node].pairs;
+  for (const q in pairs) {
+    const rec = pairs[q];
     if (rec.partner !== partner || rec.stage !== g.stage || used.has(rec.qubit)) continue;
     const age = now - rec.born;
     if (g.minAgeNs !== undefined && age < g.minAgeNs) continue;
     if (g.maxAgeNs !== undefined && age > g.maxAgeNs) continue;
     out.push(rec);
   }
-  out.sort((a, b) => (g.pick === 'newest' ? b.order - a.order : a.order - b.order));
+  if (out.length > 1) out.sort(g.pick === 'newest' ? newestFirst : oldestFirst);
   return out;
 }
+
+const oldestFirst = (a: PairRecord, b: PairRecord): number => a.order - b.order;
+const newestFirst = (a: PairRecord, b: PairRecord): number => b.order - a.order;
 
 /** Messages in the inbox of the given kind (and sender), oldest first. */
 export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: ReadonlySet<string>): Message[] {

@@ -92,6 +92,18 @@ export class Net {
   private readonly nodeNoiseCache = new Map<string, NodeNoise>();
 
   /** Memory and gate noise of a node: its own entry, else the defaults. */
+  private readonly ageGuards = new Map<string, boolean>();
+
+  /** Whether any rule of the node has a `have` guard with min_age or max_age. */
+  hasAgeGuards(node: string): boolean {
+    let v = this.ageGuards.get(node);
+    if (v === undefined) {
+      v = (this.rules.get(node) ?? []).some((r) => r.when.some((g) => g.kind === 'have' && (g.minAgeNs !== undefined || g.maxAgeNs !== undefined)));
+      this.ageGuards.set(node, v);
+    }
+    return v;
+  }
+
   nodeNoise(node: string): NodeNoise {
     let n = this.nodeNoiseCache.get(node);
     if (!n) {

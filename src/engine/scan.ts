@@ -82,6 +82,7 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
 
 /** Next moment a pair at the node reaches some rule's `min_age` or passes its `max_age`. */
 function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule[]): void {
+  if (!net.hasAgeGuards(node)) return;
   const pairs = Object.values(w.nodes[node].pairs);
   if (pairs.length === 0) return;
   let next = Infinity;

@@ -15,6 +15,8 @@ export class Bindings {
   readonly values = new Map<string, Value>();
   readonly usedQubits = new Set<string>();
   readonly usedMessages = new Set<string>();
+  /** Record views of bound messages, built once per attempt. */
+  readonly messageViews = new Map<string, ValueRecord>();
 
   clear(): void {
     if (this.pairs.size) this.pairs.clear();
@@ -22,6 +24,7 @@ export class Bindings {
     if (this.values.size) this.values.clear();
     if (this.usedQubits.size) this.usedQubits.clear();
     if (this.usedMessages.size) this.usedMessages.clear();
+    if (this.messageViews.size) this.messageViews.clear();
   }
 }
 
@@ -108,7 +111,14 @@ export class RuleScope implements Scope {
       return rec ? pairValue(rec, this.now) : (b.values.get(`\u0000pair:${name}`) ?? null);
     }
     const m = b.messages.get(name);
-    if (m !== undefined) return messageValue(m);
+    if (m !== undefined) {
+      let v = b.messageViews.get(m.id);
+      if (!v) {
+        v = messageValue(m);
+        b.messageViews.set(m.id, v);
+      }
+      return v;
+    }
     const v = b.values.get(name);
     if (v !== undefined) return v;
     if (this.net.nodeSet.has(name)) return name;

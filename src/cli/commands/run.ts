@@ -62,13 +62,21 @@ export const runCommand: CommandSpec = {
     const expectations = many(opts.expect).map(parseExpectation);
     const seed = noise.seed;
     const recorder = opts.record ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
-    if (recorder) {
-      onCrashSaveReplay((why) => {
-        const path = crashReplayPath(io);
-        io.writeFile(path, recorder.partial(why));
-        return path;
-      });
-    }
+    // an internal error saves a replay of the run so far: the recording if there is one, else
+    // a fresh recording of the events that completed (the engine is deterministic)
+    let completed = 0;
+    onCrashSaveReplay((why) => {
+      let text: string;
+      if (recorder) text = recorder.partial(why);
+      else {
+        const again = new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) });
+        runHeadless(engine, { seed, maxEvents: completed, onEvent: (ev, w) => again.add(ev, w) });
+        text = again.partial(why);
+      }
+      const path = crashReplayPath(io);
+      io.writeFile(path, text);
+      return path;
+    });
 
     const started = Date.now();
     let lastProgress = started;
@@ -86,7 +94,12 @@ export const runCommand: CommandSpec = {
       maxEvents,
       breakpoints,
       expectations,
-      onEvent: recorder ? (ev, w) => recorder.add(ev, w) : undefined,
+      onEvent: recorder
+        ? (ev, w) => {
+            completed++;
+            recorder.add(ev, w);
+          }
+        : () => void completed++,
       onBatch: (w) => progress(w.events, w.time),
     });
     if (io.stdoutIsTTY && lastProgress !== started) io.stdout('\r\x1b[K');

@@ -45,7 +45,8 @@ function usage(message: string, fix: string, field = 'breakpoint'): InputError {
   return new InputError({ code: 'usage', field, message, fix });
 }
 
-function sentKinds(net: Net): Set<string> {
+/** Message kinds that some rule sends, for checking and completing `on send KIND`. */
+export function sentKinds(net: Net): Set<string> {
   const kinds = new Set<string>();
   const visit = (steps: readonly import('../model/types.js').Step[]): void => {
     for (const s of steps) {

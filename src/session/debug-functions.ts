@@ -7,19 +7,10 @@ import { baseFunctions } from '../expr/index.js';
 import type { ExprFunction, Scope, Value } from '../expr/types.js';
 import { deliveredCount, hasNext, joinIds, quiescence, recentDeliveries, twoQubitState, type DeliveryRecord, type Net, type World } from '../engine/index.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
+import { DEBUGGER_FUNCTIONS } from '../model/index.js';
 
-export const DEBUG_FUNCTION_NAMES = [
-  'fidelity',
-  'bell',
-  'pairs',
-  'inflight',
-  'delivered',
-  'min_fidelity_delivered',
-  'fired',
-  'stalled',
-  'time',
-  'event',
-] as const;
+/** The debugger functions (FORMAT.md §3); the model layer keeps the list, so programs are told they are for breakpoints. */
+export const DEBUG_FUNCTION_NAMES = DEBUGGER_FUNCTIONS;
 
 function str(name: string, v: Value | undefined, what: string): string | undefined {
   if (v === undefined || v === null) return undefined;

@@ -3,8 +3,8 @@
  * site names, breakpoint forms, `SITE.RULE` pairs, message kinds, debugger functions and
  * breakpoint or watch numbers.
  */
+import { sentKinds as sentKindSet } from '../session/breakpoints.js';
 import type { Net } from '../engine/index.js';
-import type { Step } from '../model/types.js';
 import { DEBUG_FUNCTION_NAMES } from '../session/debug-functions.js';
 import type { Session } from '../session/session.js';
 import { COMMANDS, splitCommand } from './commands.js';
@@ -18,18 +18,7 @@ export interface Completion {
 
 /** Message kinds that some rule sends. */
 export function sentKinds(net: Net): string[] {
-  const kinds = new Set<string>();
-  const visit = (steps: readonly Step[]): void => {
-    for (const s of steps) {
-      if (s.kind === 'send') kinds.add(s.msgKind);
-      if (s.kind === 'if') {
-        visit(s.then);
-        visit(s.else);
-      }
-    }
-  };
-  for (const rules of net.rules.values()) for (const r of rules) visit(r.do);
-  return [...kinds].sort();
+  return [...sentKindSet(net)].sort();
 }
 
 /** Every `SITE.RULE` of the network. */

@@ -13,7 +13,7 @@ import { Net } from './net.js';
 import { seedRng } from './rng.js';
 import { scanNode } from './scan.js';
 import { shortPairId } from './ids.js';
-import { refreeze, thaw } from './thaw.js';
+import { settle, thaw } from './thaw.js';
 import type { EngineEvent, Scheduled, World } from './types.js';
 
 /** The world before any event: empty memories, every link attempting. */
@@ -124,8 +124,9 @@ export class Engine {
   private readonly immer = new Immer({ autoFreeze: true });
 
   /**
-   * How batches are applied: `copy` (a mutable working copy per batch, frozen after; the
-   * default, fastest) or `immer` (one draft per batch). Both give identical worlds.
+   * How events are applied: `copy` (a mutable working copy, then shared with the world it
+   * came from and frozen; the default, several times faster) or `immer` (a draft per step or
+   * batch). Both give equal worlds with the same structural sharing; tests check it.
    */
   mode: 'copy' | 'immer' = 'copy';
 
@@ -140,11 +141,17 @@ export class Engine {
 
   /** One event: the next world and what happened, or the same world and null when nothing is left. */
   step(world: World): { world: World; event: EngineEvent | null } {
-    let event: EngineEvent | null = null;
-    const next = this.immer.produce(world, (d: World) => {
-      event = applyNext(this.net, d);
-    }) as World;
-    return { world: event ? next : world, event };
+    if (this.mode === 'immer') {
+      let event: EngineEvent | null = null;
+      const next = this.immer.produce(world, (d: World) => {
+        event = applyNext(this.net, d);
+      }) as World;
+      return { world: event ? next : world, event };
+    }
+    // a working copy, then structural sharing with the world it came from (see thaw.ts)
+    const work = thaw(world);
+    const event = applyNext(this.net, work);
+    return { world: event ? settle(world, work) : world, event };
   }
 
   /**
@@ -174,7 +181,7 @@ export class Engine {
     // headless: one working copy per batch instead of proxies on every access
     const work = thaw(world);
     batch(work);
-    return { world: events.length ? refreeze(work) : world, events, exhausted };
+    return { world: events.length ? settle(world, work) : world, events, exhausted };
   }
 }
 

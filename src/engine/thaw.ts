@@ -1,47 +1,164 @@
 /**
- * A mutable working copy of a frozen world, for headless batches that skip immer's
- * proxies. Only what the engine mutates is copied; values it only replaces (density
- * matrices, queue entries, messages, delivery records) are shared, which is safe because
- * they are never mutated once stored.
+ * Working copies of frozen worlds. `thaw` makes a mutable copy of everything the engine
+ * mutates; values it only replaces (density matrices, queue entries, messages, delivery
+ * records) are shared, which is safe because they are never mutated once stored.
+ * `settle` turns a worked-on copy back into a value: subtrees equal to the world it came
+ * from are replaced by that world's own objects (structural sharing, as immer gives), and
+ * the rest is frozen.
  */
-import { freeze } from 'immer';
-import type { World } from './types.js';
+import type { Cluster, LinkState, NodeState, PairRecord, QubitState, World } from './types.js';
 
-function mapValues<T, U>(o: Record<string, T>, f: (v: T) => U): Record<string, U> {
-  const out: Record<string, U> = {};
-  for (const k in o) out[k] = f(o[k]);
+function copyPair(p: PairRecord): PairRecord {
+  const notes: PairRecord['notes'] = {};
+  for (const k in p.notes) notes[k] = p.notes[k];
+  return { qubit: p.qubit, id: p.id, partner: p.partner, stage: p.stage, born: p.born, order: p.order, link: p.link, notes };
+}
+
+function copyRecord<T>(o: Record<string, T>): Record<string, T> {
+  const out: Record<string, T> = {};
+  for (const k in o) out[k] = o[k];
   return out;
 }
 
+// Built field by field: an object spread followed by more keys is very slow in V8 here.
 /** A deep-enough copy of a world that the engine can mutate in place. */
 export function thaw(w: World): World {
+  const nodes: World['nodes'] = {};
+  for (const id in w.nodes) {
+    const n = w.nodes[id];
+    const pairs: Record<string, PairRecord> = {};
+    for (const q in n.pairs) pairs[q] = copyPair(n.pairs[q]);
+    nodes[id] = { id: n.id, busyUntil: n.busyUntil, nextWake: n.nextWake, pairs, inbox: n.inbox.slice(), arrivals: n.arrivals, fired: copyRecord(n.fired) };
+  }
+  const links: World['links'] = {};
+  for (const id in w.links) {
+    const l = w.links[id];
+    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated };
+  }
+  const qubits: World['qubits'] = {};
+  for (const id in w.qubits) {
+    const q = w.qubits[id];
+    qubits[id] = { id: q.id, node: q.node, link: q.link, cluster: q.cluster, decayedTo: q.decayedTo, frozen: q.frozen };
+  }
+  const clusters: World['clusters'] = {};
+  for (const id in w.clusters) {
+    const c = w.clusters[id];
+    clusters[id] = { id: c.id, qubits: c.qubits, rho: c.rho };
+  }
+  const c = w.counters;
   return {
     time: w.time,
     events: w.events,
     seq: w.seq,
     rng: [w.rng[0], w.rng[1], w.rng[2], w.rng[3]],
     queue: w.queue.slice(),
-    nodes: mapValues(w.nodes, (n) => ({
-      id: n.id,
-      busyUntil: n.busyUntil,
-      nextWake: n.nextWake,
-      pairs: mapValues(n.pairs, (p) => ({ ...p, notes: { ...p.notes } })),
-      inbox: n.inbox.slice(),
-      arrivals: n.arrivals,
-      fired: { ...n.fired },
-    })),
-    links: mapValues(w.links, (l) => ({ id: l.id, generating: l.generating, used: { ...l.used }, generated: l.generated })),
-    qubits: mapValues(w.qubits, (q) => ({ ...q })),
-    clusters: mapValues(w.clusters, (c) => ({ id: c.id, qubits: c.qubits, rho: c.rho })),
-    inflight: { ...w.inflight },
-    halves: { ...w.halves },
+    nodes,
+    links,
+    qubits,
+    clusters,
+    inflight: copyRecord(w.inflight),
+    halves: copyRecord(w.halves),
     delivered: w.delivered,
     lost: w.lost.slice(),
-    counters: { ...w.counters, faultHits: w.counters.faultHits.slice() },
+    counters: { qubit: c.qubit, cluster: c.cluster, pair: c.pair, message: c.message, sent: c.sent, arrived: c.arrived, dropped: c.dropped, faultHits: c.faultHits.slice() },
   };
+}
+
+/** Freezes a value and everything new inside it, stopping at what is already frozen. */
+export function deepFreeze<T>(v: T): T {
+  if (v === null || typeof v !== 'object' || Object.isFrozen(v) || ArrayBuffer.isView(v)) return v;
+  Object.freeze(v);
+  if (Array.isArray(v)) for (const x of v) deepFreeze(x);
+  else for (const k in v) deepFreeze((v as Record<string, unknown>)[k]);
+  return v;
 }
 
 /** Freezes a world worked on in place, so it can be handed out as a value. */
 export function refreeze(w: World): World {
-  return freeze(w, true);
+  return deepFreeze(w);
+}
+
+/** Whether two records hold the same keys with identical values. */
+function sameEntries<T>(a: Record<string, T>, b: Record<string, T>, eq: (x: T, y: T) => boolean = Object.is): boolean {
+  let n = 0;
+  for (const k in b) {
+    n++;
+    if (!Object.hasOwn(a, k) || !eq(a[k], b[k])) return false;
+  }
+  for (const _k in a) n--;
+  return n === 0;
+}
+
+function sameArray<T>(a: readonly T[], b: readonly T[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/** Each entry of `next` replaced by base's entry when `same` says they are equal. */
+function shareRecord<T>(base: Record<string, T>, next: Record<string, T>, same: (a: T, b: T) => boolean): Record<string, T> {
+  let changed = false;
+  let n = 0;
+  for (const k in next) {
+    n++;
+    const b = base[k];
+    if (b !== undefined && Object.hasOwn(base, k) && same(b, next[k])) next[k] = b;
+    else changed = true;
+  }
+  if (!changed) {
+    for (const _k in base) n--;
+    if (n === 0) return base;
+  }
+  return next;
+}
+
+const samePair = (a: PairRecord, b: PairRecord): boolean =>
+  a.qubit === b.qubit && a.id === b.id && a.partner === b.partner && a.stage === b.stage && a.born === b.born && a.order === b.order && a.link === b.link && sameEntries(a.notes, b.notes);
+
+const sameNode = (a: NodeState, b: NodeState): boolean => {
+  b.pairs = shareRecord(a.pairs, b.pairs, samePair);
+  if (sameArray(a.inbox, b.inbox)) b.inbox = a.inbox;
+  if (sameEntries(a.fired, b.fired)) b.fired = a.fired;
+  return a.busyUntil === b.busyUntil && a.nextWake === b.nextWake && a.arrivals === b.arrivals && a.pairs === b.pairs && a.inbox === b.inbox && a.fired === b.fired;
+};
+
+const sameLink = (a: LinkState, b: LinkState): boolean => {
+  if (sameEntries(a.used, b.used)) b.used = a.used;
+  return a.generating === b.generating && a.generated === b.generated && a.used === b.used;
+};
+
+const sameQubit = (a: QubitState, b: QubitState): boolean =>
+  a.node === b.node && a.link === b.link && a.cluster === b.cluster && a.decayedTo === b.decayedTo && a.frozen === b.frozen;
+
+const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
+
+/**
+ * Gives a worked-on copy of `base` structural sharing with it: every part equal to base's
+ * is replaced by base's own object (which is what immer would have kept), in place.
+ * Written for the world's known shape, so it costs a few comparisons per object.
+ */
+export function shareWorld(base: World, next: World): World {
+  next.nodes = shareRecord(base.nodes, next.nodes, sameNode);
+  next.links = shareRecord(base.links, next.links, sameLink);
+  next.qubits = shareRecord(base.qubits, next.qubits, sameQubit);
+  next.clusters = shareRecord(base.clusters, next.clusters, sameCluster);
+  next.inflight = shareRecord(base.inflight, next.inflight, Object.is);
+  next.halves = shareRecord(base.halves, next.halves, Object.is);
+  if (sameArray(base.queue, next.queue)) next.queue = base.queue;
+  if (sameArray(base.lost, next.lost)) next.lost = base.lost;
+  if (sameArray(base.rng, next.rng)) next.rng = base.rng;
+  const c = base.counters;
+  const d = next.counters;
+  if (
+    c.qubit === d.qubit && c.cluster === d.cluster && c.pair === d.pair && c.message === d.message &&
+    c.sent === d.sent && c.arrived === d.arrived && c.dropped === d.dropped && sameArray(c.faultHits, d.faultHits)
+  ) {
+    next.counters = c;
+  }
+  return next;
+}
+
+/** The value a working copy of `base` became: shared where unchanged, frozen everywhere. */
+export function settle(base: World, work: World): World {
+  return deepFreeze(shareWorld(base, work));
 }

@@ -107,6 +107,20 @@ describe('the world is a value', () => {
     expect(Object.isFrozen(next.nodes)).toBe(true);
   });
 
+  it('steps to equal worlds with a working copy and with immer drafts', () => {
+    const copy = engineFrom(SWAP_NET, NOISY);
+    const drafts = engineFrom(SWAP_NET, NOISY);
+    drafts.mode = 'immer';
+    let a = copy.initial(2);
+    let b = drafts.initial(2);
+    for (let i = 0; i < 300; i++) {
+      a = copy.step(a).world;
+      b = drafts.step(b).world;
+    }
+    expect(a).toEqual(b);
+    expect(Object.isFrozen(a.nodes.mill.pairs)).toBe(true);
+  });
+
   it('keeps the identity of nodes an event did not touch (structural sharing)', () => {
     const engine = engineFrom(SWAP_NET, NOISY);
     let w = engine.initial(1);

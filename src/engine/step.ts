@@ -13,7 +13,7 @@ import { Net } from './net.js';
 import { seedRng } from './rng.js';
 import { scanNode } from './scan.js';
 import { shortPairId } from './ids.js';
-import { settle, thaw } from './thaw.js';
+import { settle, thaw, thawNode } from './thaw.js';
 import type { EngineEvent, Scheduled, World } from './types.js';
 
 /** The world before any event: empty memories, every link attempting. */
@@ -40,6 +40,13 @@ export function initialWorld(net: Net, seed: number): World {
   }
   for (const id of [...net.links.keys()].sort()) maybeGenerate(net, w, id, 0);
   return w;
+}
+
+/** The nodes whose state an event may change: its link's ends, its receiver, or the woken node. */
+function touchedBy(net: Net, w: World, s: Scheduled): readonly string[] {
+  if (s.type === 'herald') return net.links.get(s.link)!.def.ends;
+  if (s.type === 'arrive') return [w.inflight[s.message].to];
+  return [s.node];
 }
 
 function isStale(w: World, s: Scheduled): boolean {
@@ -148,8 +155,12 @@ export class Engine {
       }) as World;
       return { world: event ? next : world, event };
     }
-    // a working copy, then structural sharing with the world it came from (see thaw.ts)
-    const work = thaw(world);
+    // a working copy, then structural sharing with the world it came from (see thaw.ts);
+    // only the nodes the next event touches are copied
+    const work = thaw(world, { nodes: 'none' });
+    const t = peekNextTime(work);
+    if (t === undefined) return { world, event: null };
+    for (const n of touchedBy(this.net, work, work.queue[0])) thawNode(work, n);
     const event = applyNext(this.net, work);
     return { world: event ? settle(world, work) : world, event };
   }

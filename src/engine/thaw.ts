@@ -20,16 +20,31 @@ function copyRecord<T>(o: Record<string, T>): Record<string, T> {
   return out;
 }
 
+function copyNode(n: NodeState): NodeState {
+  const pairs: Record<string, PairRecord> = {};
+  for (const q in n.pairs) pairs[q] = copyPair(n.pairs[q]);
+  return { id: n.id, busyUntil: n.busyUntil, nextWake: n.nextWake, pairs, inbox: n.inbox.slice(), arrivals: n.arrivals, fired: copyRecord(n.fired) };
+}
+
+/**
+ * Makes one node of a working copy mutable (when only some nodes were thawed). An engine
+ * write to a node that was not thawed throws (frozen object, strict mode), so a mistake here
+ * cannot silently change a world.
+ */
+export function thawNode(work: World, id: string): void {
+  const n = work.nodes[id];
+  if (n && Object.isFrozen(n)) work.nodes[id] = copyNode(n);
+}
+
 // Built field by field: an object spread followed by more keys is very slow in V8 here.
-/** A deep-enough copy of a world that the engine can mutate in place. */
-export function thaw(w: World): World {
+/**
+ * A copy of a world that the engine can mutate in place. With `nodes: 'none'`, node states
+ * stay the frozen originals until `thawNode` is called for each node an event will touch.
+ */
+export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' }): World {
   const nodes: World['nodes'] = {};
-  for (const id in w.nodes) {
-    const n = w.nodes[id];
-    const pairs: Record<string, PairRecord> = {};
-    for (const q in n.pairs) pairs[q] = copyPair(n.pairs[q]);
-    nodes[id] = { id: n.id, busyUntil: n.busyUntil, nextWake: n.nextWake, pairs, inbox: n.inbox.slice(), arrivals: n.arrivals, fired: copyRecord(n.fired) };
-  }
+  if (opts.nodes === 'all') for (const id in w.nodes) nodes[id] = copyNode(w.nodes[id]);
+  else for (const id in w.nodes) nodes[id] = w.nodes[id];
   const links: World['links'] = {};
   for (const id in w.links) {
     const l = w.links[id];
@@ -102,6 +117,7 @@ function shareRecord<T>(base: Record<string, T>, next: Record<string, T>, same: 
   for (const k in next) {
     n++;
     const b = base[k];
+    if (b === next[k]) continue;
     if (b !== undefined && Object.hasOwn(base, k) && same(b, next[k])) next[k] = b;
     else changed = true;
   }

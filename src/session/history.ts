@@ -1,7 +1,7 @@
 /**
  * The history of a run, cheap to rewind. Every computed event keeps a one-line record
- * (with its digest); worlds are kept in a contiguous window near the cursor (one immer
- * `produce` per event, so consecutive worlds share structure) and as keyframes further
+ * (with its digest); worlds are kept in a contiguous window near the cursor (one step per
+ * event, so consecutive worlds share structure) and as keyframes further
  * back. Any other world is recomputed from the nearest keyframe, which is exact because
  * the engine is deterministic.
  */
@@ -10,17 +10,17 @@ import { eventDigest, GENESIS_DIGEST } from './digest.js';
 import { replayEvent, type ReplayEvent } from './replay.js';
 
 export interface HistoryOptions {
-  /** Worlds kept one per event around the cursor (default 4096). */
+  /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
   readonly window?: number;
-  /** Events between keyframes (default 256). */
+  /** Events between keyframes (default 64). */
   readonly keyframeInterval?: number;
-  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 16384). */
+  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 32768). */
   readonly maxKeyframes?: number;
   /** Estimated bytes the keyframes may take before they are thinned the same way (default 256 MiB). */
   readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 128, maxKeyframes: 16384, keyframeBytes: 256 * 1024 * 1024 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 64, maxKeyframes: 32768, keyframeBytes: 256 * 1024 * 1024 } as const;
 
 /** A rough size of a world on its own (what a keyframe costs), from what it holds. */
 export function estimateWorldBytes(w: World): number {
@@ -222,9 +222,10 @@ export class History {
     }
     this.cachedEvent = { n: n + 1, event };
     // the window holds consecutive worlds: keep the part up to the cursor and add the new one
-    this.seg = this.seg.slice(0, n + 1 - this.lo);
+    if (this.seg.length > n + 1 - this.lo) this.seg.length = n + 1 - this.lo;
     this.seg.push(world);
-    if (this.seg.length > this.window) {
+    // let it grow to twice its size, then drop the older half at once (amortised constant time)
+    if (this.seg.length > 2 * this.window) {
       const drop = this.seg.length - this.window;
       this.seg = this.seg.slice(drop);
       this.lo += drop;

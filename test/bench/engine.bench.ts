@@ -27,12 +27,12 @@ function bareLoop(events: number): number {
   return ns / events;
 }
 
-/** Nanoseconds per event of a headless run of a chain (best of three). */
+/** Nanoseconds per event of a headless run of a chain (best of five rounds). */
 function chainCost(levels: number, events: number): number {
   const engine = engineFrom(nestedChain(levels), CHAIN_NOISE);
   runHeadless(engine, { seed: 5, maxEvents: Math.min(2000, events) }); // warm up
   let best = Infinity;
-  for (let round = 0; round < 3; round++) {
+  for (let round = 0; round < 5; round++) {
     if (typeof gc === 'function') gc();
     const t0 = process.hrtime.bigint();
     const r = runHeadless(engine, { seed: 5 + round, maxEvents: events });
@@ -52,9 +52,9 @@ export default async function engineBench(): Promise<BenchLine[]> {
     if (typeof gc === 'function') gc();
     bare = Math.min(bare, bareLoop(2_000_000));
   }
-  const mid = chainCost(4, 40_000);
-  const small = chainCost(2, 40_000);
-  const large = chainCost(7, 40_000);
+  const mid = chainCost(4, 60_000);
+  const small = chainCost(2, 60_000);
+  const large = chainCost(7, 60_000);
   return [
     {
       name: 'headless events/s on a 17-site nested chain, against a bare heap loop',

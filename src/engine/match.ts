@@ -43,8 +43,26 @@ export function evalIn(expr: Expr, scope: RuleScope, where: { node: string; rule
   }
 }
 
+/** Node ids named directly by expressions (`partner: mill`), so guards skip evaluating them. */
+const staticNodes = new WeakMap<Expr, string | null>();
+
+function staticNodeOf(expr: Expr, nodeIds: ReadonlySet<string>): string | null {
+  let v = staticNodes.get(expr);
+  if (v === undefined) {
+    const ast = expr.compiled.ast;
+    v =
+      ast.type === 'name' && nodeIds.has(ast.name) ? ast.name
+      : ast.type === 'literal' && typeof ast.value === 'string' && nodeIds.has(ast.value) ? ast.value
+      : null;
+    staticNodes.set(expr, v);
+  }
+  return v;
+}
+
 /** A node id from an expression, or a program error saying what it gave instead. */
 export function evalNode(expr: Expr, ctx: MatchContext, rule: string): string {
+  const fixed = staticNodeOf(expr, ctx.nodeIds);
+  if (fixed !== null) return fixed;
   const v = evalIn(expr, ctx.scope, { node: ctx.node, rule });
   if (typeof v === 'string' && ctx.nodeIds.has(v)) return v;
   throw new ProgramError(`"${expr.compiled.source}" gave ${JSON.stringify(v)}, which is not a node id`, {

@@ -4,7 +4,7 @@
  * It never changes during a run and is not part of the world.
  */
 import type { LinkDef, LinkNoise, NodeNoise, NoiseModel, ProgramSet, Rule } from '../model/types.js';
-import { bellDiagonal, bitFlipState, wernerState, type Rho } from '../quantum/index.js';
+import { bellDiagonal, bitFlipState, fidelityPhiPlus, wernerState, type Rho } from '../quantum/index.js';
 
 export interface LinkInfo {
   readonly def: LinkDef;
@@ -17,6 +17,8 @@ export interface LinkInfo {
   readonly heraldNs: number;
   /** The state of a freshly made pair, ends[0]'s half first. */
   readonly pairRho: Rho;
+  /** Its fidelity to Φ+. */
+  readonly pairFidelity: number;
 }
 
 /** Success probability from fiber loss and detector efficiency (REFERENCES.md, fiber and links). */
@@ -79,6 +81,7 @@ export class Net {
         periodNs,
         heraldNs: Math.round((def.lengthM / 2 / this.speed) * 1e9),
         pairRho: pairState(noise),
+        pairFidelity: fidelityPhiPlus(pairState(noise)),
       });
       at.get(def.ends[0])?.push(def.id);
       at.get(def.ends[1])?.push(def.id);

@@ -5,7 +5,6 @@
  */
 import { Immer } from 'immer';
 import type { NoiseModel, ProgramSet } from '../model/types.js';
-import { fidelityPhiPlus } from '../quantum/index.js';
 import { heapPop } from './heap.js';
 import { herald, maybeGenerate } from './links.js';
 import { arrive } from './messages.js';
@@ -87,10 +86,9 @@ export function applyNext(net: Net, w: World): EngineEvent | null {
       const info = net.links.get(s.link)!;
       const id = herald(net, w, s.link, s.emitted);
       ev.pair = id;
-      touched = [...info.def.ends];
-      const q = Object.values(w.nodes[touched[0]].pairs).find((p) => p.id === id)!;
-      const c = w.clusters[w.qubits[q.qubit].cluster];
-      base = `${s.link} made pair ${id} (F ${fidelityPhiPlus(c.rho).toFixed(3)})`;
+      touched = info.def.ends[0] === info.def.ends[1] ? [info.def.ends[0]] : [info.def.ends[0], info.def.ends[1]];
+      // a fresh pair's state is the link's, with no decay applied yet
+      base = `${s.link} made pair ${id} (F ${info.pairFidelity.toFixed(3)})`;
       break;
     }
     case 'arrive': {
@@ -109,11 +107,14 @@ export function applyNext(net: Net, w: World): EngineEvent | null {
   }
   ev.node = touched[0];
   for (const n of touched) scanNode(net, w, n, ev);
-  const nodes = new Set(touched);
-  for (const f of ev.fires) nodes.add(f.node);
-  ev.nodes = [...nodes].sort();
-  const fired = ev.fires.map((f) => `${f.node}.${f.rule}`);
-  ev.summary = fired.length ? `${base}; fired ${fired.join(', ')}` : base;
+  // rules fire only at the nodes an event touched, and a link's ends are sorted already
+  ev.nodes = touched;
+  if (ev.fires.length === 0) ev.summary = base;
+  else {
+    let fired = '';
+    for (const f of ev.fires) fired += `${fired ? ', ' : ''}${f.node}.${f.rule}`;
+    ev.summary = `${base}; fired ${fired}`;
+  }
   return ev;
 }
 

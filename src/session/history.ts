@@ -162,6 +162,20 @@ export class History {
     return this.replayTo(n).world;
   }
 
+  /** Keyframe indices below `n`, newest first (at most `max`). */
+  keyframesBelow(n: number, max: number): number[] {
+    const out: number[] = [];
+    for (let k = n - 1 - ((n - 1) % this.interval); k >= 0 && out.length < max; k -= this.interval) {
+      if (this.keyframes.has(k)) out.push(k);
+    }
+    return out;
+  }
+
+  /** The world of a keyframe (undefined when none is held at that index). */
+  keyframe(k: number): World | undefined {
+    return this.keyframes.get(k)?.world;
+  }
+
   private nearestKeyframe(n: number): [number, World] {
     // keyframes sit at multiples of the interval (older thinning only removed some), so look there first
     for (let k = n - (n % this.interval); k > 0; k -= this.interval) {

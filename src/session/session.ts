@@ -333,7 +333,6 @@ export class Session {
   /** Each watch's value at the cursor and the event at which it last changed (within the held window). */
   watches(): WatchValue[] {
     const world = this.world();
-    const [lo] = this.history.windowRange;
     return this.watchList.map((w) => {
       let value: string;
       try {
@@ -341,21 +340,43 @@ export class Session {
       } catch (e) {
         return { id: w.id, spec: w.spec, value: '?', error: e instanceof ExprError ? e.detail : String(e) };
       }
-      let changedAt: number | undefined;
-      for (let n = this.cursorAt - 1; n >= Math.max(lo, this.cursorAt - 512); n--) {
-        let prev: string;
-        try {
-          prev = this.watchValue(w, this.history.worldAt(n));
-        } catch {
-          prev = '?';
-        }
-        if (prev !== value) {
-          changedAt = n;
-          break;
-        }
-      }
-      return { id: w.id, spec: w.spec, value, changedAt };
+      return { id: w.id, spec: w.spec, value, changedAt: this.lastChange(w, value) };
     });
+  }
+
+  private valueOr(w: Watch, world: World): string {
+    try {
+      return this.watchValue(w, world);
+    } catch {
+      return '?';
+    }
+  }
+
+  /**
+   * The event at which a watch last changed to `value`: the largest n whose world differs.
+   * It looks back through the held worlds first, then through keyframes (up to 256), and
+   * replays the one keyframe interval where the change happened.
+   */
+  private lastChange(w: Watch, value: string): number | undefined {
+    const [lo] = this.history.windowRange;
+    const stop = Math.max(lo, this.cursorAt - 512, 0);
+    for (let n = this.cursorAt - 1; n >= stop; n--) {
+      if (this.valueOr(w, this.history.worldAt(n)) !== value) return n;
+    }
+    // worlds stop..cursor all hold `value`; find the newest keyframe before that which does not
+    for (const k of this.history.keyframesBelow(stop, 256)) {
+      const kw = this.history.keyframe(k)!;
+      if (this.valueOr(w, kw) === value) continue;
+      let last = k;
+      this.engine.advance(kw, stop - k, {
+        after: (ev, d) => {
+          if (this.valueOr(w, d) !== value) last = ev.index + 1;
+          return false;
+        },
+      });
+      return last;
+    }
+    return undefined;
   }
 
   // ------------------------------------------------------------------ explanations

@@ -302,7 +302,7 @@ export class Session {
     const bp = parseBreakpoint(this.engine.net, spec, 0, 'watch');
     if (bp.kind !== 'condition') throw new Error('a watch is an expression, not an event form');
     const w = { id: this.nextId++, spec: bp.spec, bp };
-    this.watchList.push(w);
+    this.watchList = [...this.watchList, w];
     return w;
   }
 
@@ -332,6 +332,17 @@ export class Session {
 
   /** Each watch's value at the cursor and the event at which it last changed (within the held window). */
   watches(): WatchValue[] {
+    // panes ask on every frame: compute once per cursor position and list of watches
+    const c = this.watchCache;
+    if (c && c.cursor === this.cursorAt && c.list === this.watchList) return c.values;
+    const values = this.computeWatches();
+    this.watchCache = { cursor: this.cursorAt, list: this.watchList, values };
+    return values;
+  }
+
+  private watchCache?: { cursor: number; list: readonly Watch[]; values: WatchValue[] };
+
+  private computeWatches(): WatchValue[] {
     const world = this.world();
     return this.watchList.map((w) => {
       let value: string;

@@ -54,8 +54,3 @@ export function heapPop<T extends Timed>(heap: T[]): T | undefined {
   heap[i] = last;
   return top;
 }
-
-/** The earliest entry without removing it. */
-export function heapPeek<T extends Timed>(heap: readonly T[]): T | undefined {
-  return heap[0];
-}

@@ -57,13 +57,6 @@ export function hasNext(w: World): boolean {
   return w.queue.some((s) => !isStale(w, s));
 }
 
-/** Time of the next event, or undefined when none is left. */
-export function nextTime(w: World): number | undefined {
-  let t: number | undefined;
-  for (const s of w.queue) if (!isStale(w, s) && (t === undefined || s.time < t)) t = s.time;
-  return t;
-}
-
 /** Time of the next event on a mutable (draft) world, dropping stale wake-ups from the top of the queue. */
 export function peekNextTime(w: World): number | undefined {
   while (w.queue.length > 0 && isStale(w, w.queue[0])) heapPop(w.queue);

@@ -2,7 +2,7 @@
  * Working copies of frozen worlds. `thaw` makes a mutable copy of everything the engine
  * mutates; values it only replaces (density matrices, queue entries, messages, delivery
  * records) are shared, which is safe because they are never mutated once stored.
- * `settle` turns a worked-on copy back into a value: subtrees equal to the world it came
+ * `settle` turns a worked-on copy back into a value: parts equal to the world it came
  * from are replaced by that world's own objects (structural sharing, as immer gives), and
  * the rest is frozen.
  */
@@ -86,11 +86,6 @@ export function deepFreeze<T>(v: T): T {
   if (Array.isArray(v)) for (const x of v) deepFreeze(x);
   else for (const k in v) deepFreeze((v as Record<string, unknown>)[k]);
   return v;
-}
-
-/** Freezes a world worked on in place, so it can be handed out as a value. */
-export function refreeze(w: World): World {
-  return deepFreeze(w);
 }
 
 /** Whether two records hold the same keys with identical values. */

@@ -39,7 +39,8 @@ export class BreakpointError extends Error {
   }
 }
 
-const ALLOWED_CALLS = new Set<string>([...DEBUG_FUNCTION_NAMES, 'xor', 'min', 'max', 'abs', 'floor', 'round', 'join']);
+/** Functions breakpoints, watches and expectations may call. */
+export const ALLOWED_CALLS: ReadonlySet<string> = new Set<string>([...DEBUG_FUNCTION_NAMES, 'xor', 'min', 'max', 'abs', 'floor', 'round', 'join']);
 
 function usage(message: string, fix: string, field = 'breakpoint'): InputError {
   return new InputError({ code: 'usage', field, message, fix });
@@ -215,18 +216,31 @@ export function eventHits(bp: Breakpoint, ev: EngineEvent): string | undefined {
   }
 }
 
+/** A breakpoint hit: which breakpoint, and what hit it in words. */
+export interface Hit {
+  readonly bp: Breakpoint;
+  readonly what: string;
+}
+
 /**
- * Whether a breakpoint is hit by the event that led from `before` to `after`. Condition
- * breakpoints hit on the change from false to true.
+ * A function that says, event by event, which enabled breakpoint (if any) the event hits,
+ * starting from the world `start`. Condition breakpoints hit when they change from false
+ * to true, so it keeps each condition's last value; `on stall` is decided by the caller.
  */
-export function breakpointHit(net: Net, bp: Breakpoint, before: World | undefined, after: World, ev: EngineEvent): string | undefined {
-  if (!bp.enabled) return undefined;
-  if (bp.kind === 'condition') {
-    const now = conditionHolds(net, after, bp);
-    if (!now.holds) return undefined;
-    if (before && conditionHolds(net, before, bp).holds) return undefined;
-    return `${bp.spec}${now.binding ? ` (${now.binding})` : ''}`;
-  }
-  if (bp.kind === 'stall') return undefined;
-  return eventHits(bp, ev);
+export function breakpointScanner(net: Net, breakpoints: readonly Breakpoint[], start: World): (ev: EngineEvent, w: World) => Hit | undefined {
+  const active = breakpoints.filter((b) => b.enabled && b.kind !== 'stall');
+  const held = new Map(active.filter((b) => b.kind === 'condition').map((b) => [b.id, conditionHolds(net, start, b).holds]));
+  return (ev, w) => {
+    let found: Hit | undefined;
+    for (const bp of active) {
+      let what: string | undefined;
+      if (bp.kind === 'condition') {
+        const now = conditionHolds(net, w, bp);
+        if (now.holds && !held.get(bp.id)) what = `${bp.spec}${now.binding ? ` (${now.binding})` : ''}`;
+        held.set(bp.id, now.holds);
+      } else what = eventHits(bp, ev);
+      if (what && !found) found = { bp, what };
+    }
+    return found;
+  };
 }

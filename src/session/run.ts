@@ -8,8 +8,8 @@ import type { Compiled, Value } from '../expr/types.js';
 import { InputError } from '../model/errors.js';
 import { quiescence, stallReport, type Engine, type EngineEvent, type World } from '../engine/index.js';
 import { formatDuration } from '../model/units.js';
-import { breakpointHit, conditionHolds, type Breakpoint } from './breakpoints.js';
-import { debugScope, DEBUG_FUNCTION_NAMES } from './debug-functions.js';
+import { ALLOWED_CALLS, breakpointScanner, type Breakpoint } from './breakpoints.js';
+import { debugScope } from './debug-functions.js';
 import { summarize, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
 
 /** Events a run applies when neither --until nor --events is given, so that it always ends. */
@@ -27,10 +27,9 @@ export interface Expectation {
 export function parseExpectation(spec: string): Expectation {
   try {
     const compiled = parseExpr(spec);
-    const allowed = new Set<string>([...DEBUG_FUNCTION_NAMES, 'xor', 'min', 'max', 'abs', 'floor', 'round', 'join']);
-    const bad = compiled.calls.find((c) => !allowed.has(c));
+    const bad = compiled.calls.find((c) => !ALLOWED_CALLS.has(c));
     if (bad) {
-      throw new InputError({ code: 'usage', field: '--expect', message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...allowed].join(', ')}` });
+      throw new InputError({ code: 'usage', field: '--expect', message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...ALLOWED_CALLS].join(', ')}` });
     }
     return { spec, compiled };
   } catch (e) {
@@ -80,9 +79,7 @@ export function runHeadless(engine: Engine, opts: RunOptions, from?: World): Run
   let world = from ?? engine.initial(opts.seed);
   const limit = opts.maxEvents ?? (opts.untilNs === undefined ? DEFAULT_MAX_EVENTS : Infinity);
   const bps = (opts.breakpoints ?? []).filter((b) => b.enabled);
-  const conds = bps.filter((b) => b.kind === 'condition');
-  // condition breakpoints hit on a change from false to true
-  const held = new Map(conds.map((b) => [b.id, conditionHolds(engine.net, world, b).holds]));
+  const scan = breakpointScanner(engine.net, bps, world);
   let stop: Stop | undefined;
   let hitBp: Breakpoint | undefined;
   const startEvents = world.events;
@@ -103,21 +100,11 @@ export function runHeadless(engine: Engine, opts: RunOptions, from?: World): Run
       },
       after: (ev, d) => {
         opts.onEvent?.(ev, d);
-        for (const bp of bps) {
-          let hit: string | undefined;
-          if (bp.kind === 'condition') {
-            const now = conditionHolds(engine.net, d, bp);
-            const was = held.get(bp.id)!;
-            held.set(bp.id, now.holds);
-            if (now.holds && !was) hit = `${bp.spec}${now.binding ? ` (${now.binding})` : ''}`;
-          } else hit = breakpointHit(engine.net, bp, undefined, d, ev);
-          if (hit) {
-            stop = { reason: 'breakpoint', detail: `breakpoint ${bp.id} at event ${ev.index}: ${hit}` };
-            hitBp = bp;
-            return true;
-          }
-        }
-        return false;
+        const hit = scan(ev, d);
+        if (!hit) return false;
+        stop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id} at event ${ev.index}: ${hit.what}` };
+        hitBp = hit.bp;
+        return true;
       },
     });
     world = r.world;

@@ -7,7 +7,7 @@ import { explainNode, hasNext, quiescence, stallReport, type Engine, type Engine
 import { evaluate, ExprError, formatValue } from '../expr/index.js';
 import type { Value } from '../expr/types.js';
 import { lint, type Finding } from '../model/index.js';
-import { breakpointHit, conditionHolds, parseBreakpoint, type Breakpoint } from './breakpoints.js';
+import { breakpointScanner, conditionHolds, parseBreakpoint, type Breakpoint, type Hit } from './breakpoints.js';
 import { debugScope } from './debug-functions.js';
 import { History, type HistoryOptions } from './history.js';
 import { buildReplay, serializeReplay } from './replay.js';
@@ -202,9 +202,8 @@ export class Session {
   continue(): SessionStop {
     const active = this.bps.filter((b) => b.enabled);
     const start = this.cursorAt;
-    const scan = this.scanner(active, this.world());
-    type Hit = { at: number; bp: Breakpoint; what: string };
-    const found: { hit?: Hit } = {};
+    const scan = breakpointScanner(this.engine.net, active, this.world());
+    const found: { hit?: Hit & { at: number } } = {};
     const onEvent = (ev: EngineEvent, w: World): boolean => {
       const h = scan(ev, w);
       if (h) found.hit = { at: ev.index + 1, ...h };
@@ -222,7 +221,7 @@ export class Session {
     if (!found.hit && at >= this.history.frontier) {
       this.history.extend(this.continueLimit - (at - start), (ev, d) => onEvent(ev, d));
     }
-    const hit = found.hit as Hit | undefined;
+    const hit = found.hit as (Hit & { at: number }) | undefined;
     if (!hit) at = Math.max(at, this.history.frontier);
     if (hit) {
       this.hitEvents.get(hit.bp.id)?.add(hit.at - 1);
@@ -252,8 +251,8 @@ export class Session {
     let hiAt = this.cursorAt - 1;
     while (hiAt > 0 && active.length > 0) {
       const from = Math.max(0, hiAt - chunk);
-      const scan = this.scanner(active, this.history.worldAt(from));
-      const found: { last?: { at: number; bp: Breakpoint; what: string } } = {};
+      const scan = breakpointScanner(this.engine.net, active, this.history.worldAt(from));
+      const found: { last?: Hit & { at: number } } = {};
       this.engine.advance(this.history.worldAt(from), hiAt - from, {
         after: (ev, d) => {
           const h = scan(ev, d);
@@ -275,25 +274,6 @@ export class Session {
     this.history.place(0);
     this.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; at the start of the run' };
     return this.lastStop;
-  }
-
-  /** A function that says, event by event, which breakpoint (if any) an event hits. */
-  private scanner(active: readonly Breakpoint[], start: World): (ev: EngineEvent, w: World) => { bp: Breakpoint; what: string } | undefined {
-    const net = this.engine.net;
-    const held = new Map(active.filter((b) => b.kind === 'condition').map((b) => [b.id, conditionHolds(net, start, b).holds]));
-    return (ev, w) => {
-      let found: { bp: Breakpoint; what: string } | undefined;
-      for (const bp of active) {
-        let what: string | undefined;
-        if (bp.kind === 'condition') {
-          const now = conditionHolds(net, w, bp);
-          if (now.holds && !held.get(bp.id)) what = `${bp.spec}${now.binding ? ` (${now.binding})` : ''}`;
-          held.set(bp.id, now.holds);
-        } else what = breakpointHit(net, bp, undefined, w, ev);
-        if (what && !found) found = { bp, what };
-      }
-      return found;
-    };
   }
 
   // ------------------------------------------------------------------ watches

@@ -6,8 +6,7 @@
  * the engine is deterministic.
  */
 import type { Engine, EngineEvent, World } from '../engine/index.js';
-import { eventDigest, GENESIS_DIGEST } from './digest.js';
-import { replayEvent, type ReplayEvent } from './replay.js';
+import { DigestChain, type ReplayEvent } from './replay.js';
 
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
@@ -49,7 +48,7 @@ export class History {
   private keyframeTotal = 0;
   private readonly keyframes = new Map<number, { world: World; bytes: number }>();
   private frontierWorld: World;
-  private digest = GENESIS_DIGEST;
+  private readonly chain = new DigestChain();
   /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
   private lo = 0;
   private seg: World[];
@@ -119,8 +118,7 @@ export class History {
   }
 
   private record(ev: EngineEvent, after: World): void {
-    this.digest = eventDigest(this.digest, ev, after);
-    this.records.push(replayEvent(ev, this.digest));
+    this.records.push(this.chain.next(ev, after));
     this.remember(this.records.length, after);
     this.onNewEvent?.(ev, after);
   }
@@ -138,8 +136,7 @@ export class History {
         after: (ev, d) => {
           out.push(ev);
           // keyframes and digests need the world after this event; within a batch that is the draft
-          this.digest = eventDigest(this.digest, ev, d);
-          this.records.push(replayEvent(ev, this.digest));
+          this.records.push(this.chain.next(ev, d));
           this.onNewEvent?.(ev, d);
           if (stop?.(ev, d)) halt = true;
           // end the batch at keyframe boundaries so the keyframe is a finished, frozen world

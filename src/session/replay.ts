@@ -125,10 +125,21 @@ export function buildReplay(
   return { ...body, checksum: replayChecksum(body) };
 }
 
+/** The chain of per-event digests: each event's record carries the digest of the world after it. */
+export class DigestChain {
+  private digest = GENESIS_DIGEST;
+
+  /** The record of the next event, given the world after it. */
+  next(ev: EngineEvent, w: World): ReplayEvent {
+    this.digest = eventDigest(this.digest, ev, w);
+    return replayEvent(ev, this.digest);
+  }
+}
+
 /** Records events and digests during a run and produces the replay file. */
 export class Recorder {
   readonly events: ReplayEvent[] = [];
-  private digest = GENESIS_DIGEST;
+  private readonly chain = new DigestChain();
 
   constructor(
     private readonly engine: Engine,
@@ -137,8 +148,7 @@ export class Recorder {
 
   /** Adds an event with the world after it. */
   add(ev: EngineEvent, w: World): void {
-    this.digest = eventDigest(this.digest, ev, w);
-    this.events.push(replayEvent(ev, this.digest));
+    this.events.push(this.chain.next(ev, w));
   }
 
   /** The replay text for a run that ended with `stop`. */

@@ -5,8 +5,7 @@
  */
 import { Engine, quiescence, type World } from '../engine/index.js';
 import { loadInputs } from '../model/index.js';
-import { eventDigest, GENESIS_DIGEST } from './digest.js';
-import { replayEvent, type ReplayEvent, type ReplayFile } from './replay.js';
+import { DigestChain, type ReplayEvent, type ReplayFile } from './replay.js';
 import { checkExpectations, parseExpectation } from './run.js';
 import type { ExpectationResult } from './summary.js';
 
@@ -61,15 +60,14 @@ function compare(rec: ReplayEvent, got: ReplayEvent): Divergence | null {
 export function verifyReplay(r: ReplayFile): VerifyResult {
   const engine = engineFromReplay(r);
   let world: World = engine.initial(r.seed);
-  let digest = GENESIS_DIGEST;
+  const chain = new DigestChain();
   let divergence: Divergence | null = null;
   let checked = 0;
   const total = r.events.length;
   while (!divergence && checked < total) {
     const res = engine.advance(world, Math.min(2048, total - checked), {
       after: (ev, d) => {
-        digest = eventDigest(digest, ev, d);
-        divergence = compare(r.events[checked], replayEvent(ev, digest));
+        divergence = compare(r.events[checked], chain.next(ev, d));
         if (!divergence) checked++;
         return divergence !== null;
       },

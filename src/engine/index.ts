@@ -5,7 +5,7 @@ export { ProgramError } from './errors.js';
 export { joinIds, linkPairId, parsePairId, shortPairId } from './ids.js';
 export { explainNode, explainRule, guardText, stallReport, type GuardStatus, type RuleExplanation, type StallEntry } from './explain.js';
 export { farHalf, twoQubitState, viewPair, type PairView } from './pair-state.js';
-export { programFunctions, pairValue, messageValue } from './scope.js';
+export { joinFunction, programFunctions, pairValue, messageValue } from './scope.js';
 export { RULE_LOOP_LIMIT } from './scan.js';
 export { seedRng, drawUniform, geometricAttempts, mixSeed, SEED_WARMUP } from './rng.js';
 export type * from './types.js';

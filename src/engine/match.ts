@@ -7,6 +7,7 @@
 import { evaluate, ExprError } from '../expr/index.js';
 import type { Value } from '../expr/types.js';
 import type { Expr, Guard, HaveGuard, Rule } from '../model/types.js';
+import { offsetPos, staticNode } from '../model/index.js';
 import { ProgramError } from './errors.js';
 import type { Bindings, RuleScope } from './scope.js';
 import type { Message, PairRecord, World } from './types.js';
@@ -33,10 +34,7 @@ export function evalIn(expr: Expr, scope: RuleScope, where: { node: string; rule
     return evaluate(expr.compiled, scope);
   } catch (e) {
     if (e instanceof ExprError) {
-      const pos =
-        e.line === 1
-          ? { ...expr.pos, col: expr.pos.col + e.col - 1 }
-          : { ...expr.pos, line: expr.pos.line + e.line - 1, col: e.col };
+      const pos = offsetPos(expr.pos, expr.compiled.source, e.offset);
       throw new ProgramError(`${e.detail} in "${expr.compiled.source}"`, { pos, ...where });
     }
     throw e;
@@ -46,14 +44,11 @@ export function evalIn(expr: Expr, scope: RuleScope, where: { node: string; rule
 /** Node ids named directly by expressions (`partner: mill`), so guards skip evaluating them. */
 const staticNodes = new WeakMap<Expr, string | null>();
 
-function staticNodeOf(expr: Expr, nodeIds: ReadonlySet<string>): string | null {
+/** The node an expression names directly, or null (cached per expression). */
+export function staticNodeOf(expr: Expr, nodeIds: ReadonlySet<string>): string | null {
   let v = staticNodes.get(expr);
   if (v === undefined) {
-    const ast = expr.compiled.ast;
-    v =
-      ast.type === 'name' && nodeIds.has(ast.name) ? ast.name
-      : ast.type === 'literal' && typeof ast.value === 'string' && nodeIds.has(ast.value) ? ast.value
-      : null;
+    v = staticNode(expr, nodeIds) ?? null;
     staticNodes.set(expr, v);
   }
   return v;

@@ -4,6 +4,7 @@
  * It never changes during a run and is not part of the world.
  */
 import type { LinkDef, LinkNoise, NodeNoise, NoiseModel, ProgramSet, Rule } from '../model/types.js';
+import type { RuleScope } from './scope.js';
 import { bellDiagonal, bitFlipState, fidelityPhiPlus, wernerState, type Rho } from '../quantum/index.js';
 
 export interface LinkInfo {
@@ -59,7 +60,7 @@ export class Net {
   readonly speed: number;
   private readonly distCache = new Map<string, Map<string, number>>();
   /** One reusable expression scope per node for the rule interpreter (a cache, not state). */
-  readonly scopes = new Map<string, unknown>();
+  readonly scopes = new Map<string, RuleScope>();
 
   constructor(programSet: ProgramSet, noise: NoiseModel) {
     this.programSet = programSet;

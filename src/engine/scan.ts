@@ -3,12 +3,11 @@
  * order and the first whose guards hold fires; the scan restarts until none fires. Then
  * wake-ups are scheduled for the moments age guards will change their answer.
  */
-import { evaluate } from '../expr/index.js';
 import type { Rule } from '../model/types.js';
 import { ProgramError } from './errors.js';
 import { heapPush } from './heap.js';
 import { runSteps } from './fire.js';
-import { matchRule, type MatchContext } from './match.js';
+import { matchRule, staticNodeOf, type MatchContext } from './match.js';
 import type { Net } from './net.js';
 import { Bindings, RuleScope } from './scope.js';
 import type { EngineEvent, FireRecord, World } from './types.js';
@@ -37,7 +36,7 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
   const rules = net.rules.get(node);
   if (!rules || rules.length === 0) return;
   const state = w.nodes[node];
-  let scope = net.scopes.get(node) as RuleScope | undefined;
+  let scope = net.scopes.get(node);
   if (!scope) {
     scope = new RuleScope(net, w, node, new Bindings());
     net.scopes.set(node, scope);
@@ -89,7 +88,7 @@ function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule
   for (const rule of rules) {
     for (const g of rule.when) {
       if (g.kind !== 'have' || (g.minAgeNs === undefined && g.maxAgeNs === undefined)) continue;
-      const partner = staticPartner(net, g.partner.compiled);
+      const partner = staticNodeOf(g.partner, net.nodeSet) ?? undefined;
       for (const p of pairs) {
         if (p.stage !== g.stage || (partner !== undefined && p.partner !== partner)) continue;
         if (g.minAgeNs !== undefined && p.born + g.minAgeNs > w.time) next = Math.min(next, p.born + g.minAgeNs);
@@ -98,11 +97,4 @@ function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule
     }
   }
   if (Number.isFinite(next)) requestWake(w, node, next, 'age limit');
-}
-
-/** The partner a guard names when it names a node directly; undefined when it depends on bindings. */
-function staticPartner(net: Net, c: { names: readonly string[]; calls: readonly string[] } & Parameters<typeof evaluate>[0]): string | undefined {
-  if (c.calls.length > 0 || c.names.some((n) => !net.nodeSet.has(n))) return undefined;
-  const v = evaluate(c, { lookup: (n) => (net.nodeSet.has(n) ? n : undefined), functions: {} });
-  return typeof v === 'string' ? v : undefined;
 }

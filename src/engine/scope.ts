@@ -43,15 +43,18 @@ export function messageValue(m: Message): ValueRecord {
   return v;
 }
 
+/** `join(a, b)`: the shared id of the pair a swap of a and b makes, for programs and breakpoints alike. */
+export const joinFunction: ExprFunction = (args) => {
+  if (args.length !== 2 || typeof args[0] !== 'string' || typeof args[1] !== 'string') {
+    throw new Error('join takes two pair ids (strings), e.g. join(a.id, m.pair)');
+  }
+  return joinIds(args[0], args[1]);
+};
+
 /** The functions node programs may call: the base library plus `join`, `age` and `now`. */
 export function programFunctions(at: { now: () => number; pairById: (id: string) => PairRecord | undefined }): Record<string, ExprFunction> {
   return Object.assign(Object.create(null) as Record<string, ExprFunction>, baseFunctions, {
-    join: (args) => {
-      if (args.length !== 2 || typeof args[0] !== 'string' || typeof args[1] !== 'string') {
-        throw new Error('join takes two pair ids (strings), e.g. join(a.id, m.pair)');
-      }
-      return joinIds(args[0], args[1]);
-    },
+    join: joinFunction,
     now: (args) => {
       if (args.length !== 0) throw new Error('now takes no arguments');
       return at.now();

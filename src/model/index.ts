@@ -7,7 +7,7 @@ export { loadProgramSet, linkId } from './load-program.js';
 export { loadNoiseModel, idealNoise, linkNoiseFor, nodeNoiseFor, FIBER_SPEED_M_PER_S } from './load-noise.js';
 export { crossCheck } from './cross-check.js';
 export { loadInputs, type InputFiles } from './load-inputs.js';
-export { staticNode, literalValue, PROGRAM_FUNCTIONS, DEBUGGER_FUNCTIONS } from './expressions.js';
+export { staticNode, literalValue, offsetPos, PROGRAM_FUNCTIONS, DEBUGGER_FUNCTIONS } from './expressions.js';
 export { MESSAGE_FIELDS, PAIR_FIELDS } from './build-steps.js';
 export { programSetJsonSchema, noiseJsonSchema } from './json-schema.js';
 export { lint, type Finding } from './lint.js';

@@ -5,7 +5,7 @@
  */
 import { baseFunctions } from '../expr/index.js';
 import type { ExprFunction, Scope, Value } from '../expr/types.js';
-import { deliveredCount, hasNext, joinIds, quiescence, recentDeliveries, twoQubitState, type DeliveryRecord, type Net, type World } from '../engine/index.js';
+import { deliveredCount, farHalf, hasNext, joinFunction, quiescence, recentDeliveries, twoQubitState, type DeliveryRecord, type Net, type World } from '../engine/index.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import { DEBUGGER_FUNCTIONS } from '../model/index.js';
 
@@ -29,8 +29,8 @@ export function locatePair(w: World, id: string): [string, string] | undefined {
   for (const n of Object.keys(w.nodes).sort()) {
     for (const rec of Object.values(w.nodes[n].pairs)) {
       if (rec.id !== id || rec.partner < n) continue;
-      const far = Object.values(w.nodes[rec.partner]?.pairs ?? {}).find((p) => p.id === id && p.partner === n);
-      if (far) return [rec.qubit, far.qubit];
+      const far = farHalf(w, n, rec.qubit);
+      if (far) return [rec.qubit, far];
     }
   }
   return undefined;
@@ -60,10 +60,7 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
     return t;
   };
   return Object.assign(Object.create(null) as Record<string, ExprFunction>, baseFunctions, {
-    join: (args: readonly Value[]) => {
-      if (args.length !== 2 || typeof args[0] !== 'string' || typeof args[1] !== 'string') throw new Error('join takes two pair ids');
-      return joinIds(args[0], args[1]);
-    },
+    join: joinFunction,
     fidelity: (args) => truth('fidelity', args).fidelity,
     bell: (args) => truth('bell', args).bell,
     pairs: (args) => {

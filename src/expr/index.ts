@@ -8,4 +8,4 @@ export { parseTemplate } from './template.js';
 export { baseFunctions } from './functions.js';
 export { makeScope } from './scope.js';
 export { formatValue, valuesEqual } from './values.js';
-export { closest } from './suggest.js';
+export { closest, editDistance } from './suggest.js';

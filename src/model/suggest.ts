@@ -1,19 +1,8 @@
 /** Near-spelling suggestions for messages: "unknown node "mil" (did you mean "mill"?)". */
 
-/** Levenshtein distance between two strings (insert, delete, substitute each cost 1). */
-export function editDistance(a: string, b: string): number {
-  if (a === b) return 0;
-  let prev = Array.from({ length: b.length + 1 }, (_, i) => i);
-  for (let i = 1; i <= a.length; i++) {
-    const cur = [i];
-    for (let j = 1; j <= b.length; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      cur[j] = Math.min(prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + cost);
-    }
-    prev = cur;
-  }
-  return prev[b.length];
-}
+import { editDistance } from '../expr/index.js';
+
+export { editDistance };
 
 /**
  * The candidate nearest to `word` within `max` edits (ties: first in list), or undefined.

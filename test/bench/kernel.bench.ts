@@ -3,6 +3,7 @@
  * matrices, Kron-expanded operators (built once, outside the timing) and U ρ U† products.
  */
 import * as math from 'mathjs';
+import { randomRho, seeded } from '../quantum/helpers.js';
 import type { Complex, Matrix } from 'mathjs';
 import {
   applyGate,
@@ -38,29 +39,6 @@ function compare(dense: () => void, kernel: () => void): { dense: number; kernel
     tKernel = Math.min(tKernel, nsPerCall(kernel));
   }
   return { dense: tDense, kernel: tKernel };
-}
-
-function randomRho(n: number, seed: number): Rho {
-  let s = seed;
-  const rand = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) - 0.5;
-  const dim = 1 << n;
-  const a = Array.from({ length: 2 * dim * dim }, rand);
-  const data = new Float64Array(2 * dim * dim);
-  let tr = 0;
-  for (let r = 0; r < dim; r++)
-    for (let c = 0; c < dim; c++) {
-      let re = 0;
-      let im = 0;
-      for (let k = 0; k < dim; k++) {
-        const [xr, xi, yr, yi] = [a[2 * (r * dim + k)], a[2 * (r * dim + k) + 1], a[2 * (c * dim + k)], -a[2 * (c * dim + k) + 1]];
-        re += xr * yr - xi * yi;
-        im += xr * yi + xi * yr;
-      }
-      data[2 * (r * dim + c)] = re;
-      data[2 * (r * dim + c) + 1] = im;
-      if (r === c) tr += re;
-    }
-  return { n, data: data.map((v) => v / tr) };
 }
 
 const cx = (re: number, im = 0): Complex => math.complex(re, im);
@@ -147,7 +125,7 @@ function kernelOps(n: number): Record<string, (r: Rho) => unknown> {
 export default async function kernelBench(): Promise<BenchLine[]> {
   const lines: BenchLine[] = [];
   for (const n of [2, 4, 6]) {
-    const rho = randomRho(n, 1000 + n);
+    const rho = randomRho(n, seeded(1000 + n));
     const m = toMath(rho);
     const builders = denseBuilders(n);
     const kernel = kernelOps(n);

@@ -1,12 +1,11 @@
 /** Loads a noise model (`*.noise.yaml`, FORMAT.md §2), merging per-link and per-node settings over the defaults. */
 import { FileCtx } from './file-ctx.js';
-import { checkFormatTag } from './format-tag.js';
-import { validate } from './issues.js';
+import { openFile } from './open-file.js';
 import { noiseValidation, type RawGates, type RawLinkNoise, type RawMemory, type RawNoise } from './schema-noise.js';
 import { NODE_ID_RE } from './schema-program.js';
 import type { ClassicalNoise, Fault, GateNoise, LinkNoise, MemoryNoise, NodeNoise, NoiseModel, PairStateSpec, SuccessSpec } from './types.js';
 import { parseDuration, parseLoss, parseSpeed } from './units.js';
-import { SourceDoc, type Path } from './yaml-source.js';
+import type { Path } from './yaml-source.js';
 
 /** Light in fiber, about 200,000 km/s (common practice). */
 export const FIBER_SPEED_M_PER_S = 2e8;
@@ -152,12 +151,7 @@ class NoiseBuilder {
 
 /** Parses and validates a noise model; throws InputErrors naming file:line:col for anything wrong. */
 export function loadNoiseModel(file: string, text: string): NoiseModel {
-  const src = SourceDoc.parse(file, text);
-  checkFormatTag(src, 'noise model');
-  const ctx = new FileCtx(src);
-  const raw = validate(src, noiseValidation.noise, src.value, ctx.errors) as RawNoise | undefined;
-  ctx.throwIfErrors();
-  if (!raw) throw new Error('unreachable: validation returned nothing without errors');
+  const { ctx, raw } = openFile<RawNoise>(file, text, 'noise model', noiseValidation.noise);
   const b = new NoiseBuilder(ctx);
   const d = raw.defaults;
   const defaults = {

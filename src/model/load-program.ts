@@ -4,14 +4,12 @@ import { buildGuard, guardBindings, type RuleBuild } from './build-guards.js';
 import { buildSteps, stepBindingSites } from './build-steps.js';
 import { ExprCompiler } from './expressions.js';
 import { FileCtx } from './file-ctx.js';
-import { checkFormatTag } from './format-tag.js';
-import { validate } from './issues.js';
+import { openFile } from './open-file.js';
 import { programValidation, type RawProgramSet, type RawRule } from './schema-program.js';
 import { didYouMean } from './suggest.js';
 import type { Guard, LinkDef, NodeDef, Program, ProgramSet, Rule } from './types.js';
 import { parseLength } from './units.js';
 import type { Path } from './yaml-source.js';
-import { SourceDoc } from './yaml-source.js';
 
 /** The link id of two node ids: "a~b" with the ends sorted. */
 export function linkId(a: string, b: string): string {
@@ -124,12 +122,7 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef
 
 /** Parses and validates a program set; throws InputErrors naming file:line:col for anything wrong. */
 export function loadProgramSet(file: string, text: string): ProgramSet {
-  const src = SourceDoc.parse(file, text);
-  checkFormatTag(src, 'program set');
-  const ctx = new FileCtx(src);
-  const raw = validate(src, programValidation.programSet, src.value, ctx.errors) as RawProgramSet | undefined;
-  ctx.throwIfErrors();
-  if (!raw) throw new Error('unreachable: validation returned nothing without errors');
+  const { ctx, raw } = openFile<RawProgramSet>(file, text, 'program set', programValidation.programSet);
   const nodes = buildNodes(ctx, raw);
   const links = buildLinks(ctx, raw, nodes);
   const programs = buildPrograms(ctx, raw, nodes);

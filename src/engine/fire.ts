@@ -54,7 +54,7 @@ function value(ctx: BodyContext, e: Expr): Value {
 /** A half leaves this node's memory; remember its last record so later steps can still read it. */
 function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   const node = ctx.w.nodes[ctx.node];
-  ctx.scope.bindings.values.set(`\u0000pair:${name}`, pairValue(rec, ctx.scope.now));
+  ctx.scope.bindings.released.set(name, pairValue(rec, ctx.scope.now));
   delete node.pairs[rec.qubit];
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
 }

@@ -17,6 +17,8 @@ export class Bindings {
   readonly usedMessages = new Set<string>();
   /** Record views of bound messages, built once per attempt. */
   readonly messageViews = new Map<string, ValueRecord>();
+  /** The last record of bound pairs that left the node earlier in the body (measured, discarded, delivered). */
+  readonly released = new Map<string, ValueRecord>();
 
   clear(): void {
     if (this.pairs.size) this.pairs.clear();
@@ -25,6 +27,7 @@ export class Bindings {
     if (this.usedQubits.size) this.usedQubits.clear();
     if (this.usedMessages.size) this.usedMessages.clear();
     if (this.messageViews.size) this.messageViews.clear();
+    if (this.released.size) this.released.clear();
   }
 }
 
@@ -111,7 +114,7 @@ export class RuleScope implements Scope {
     if (q !== undefined) {
       const rec = this.w.nodes[this.node].pairs[q];
       // a pair freed earlier in the body still reads as its last record
-      return rec ? pairValue(rec, this.now) : (b.values.get(`\u0000pair:${name}`) ?? null);
+      return rec ? pairValue(rec, this.now) : (b.released.get(name) ?? null);
     }
     const m = b.messages.get(name);
     if (m !== undefined) {
@@ -129,8 +132,6 @@ export class RuleScope implements Scope {
   }
 
   listNames(): Iterable<string> {
-    return [...this.bindings.pairs.keys(), ...this.bindings.messages.keys(), ...this.bindings.values.keys()].filter(
-      (n) => !n.startsWith('\u0000'),
-    );
+    return [...this.bindings.pairs.keys(), ...this.bindings.messages.keys(), ...this.bindings.values.keys()];
   }
 }

@@ -1,0 +1,62 @@
+/**
+ * Regression fixtures recorded by the engine before the lean core (commit 65ce577): replay
+ * files that must still verify, and for many seeds of several scenarios the last chained
+ * digest and the hash of the run summary. Every digest hashes the density matrices bit for
+ * bit, so a faster kernel or interpreter that changes any number, any event or any order of
+ * operations fails here.
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { Engine } from '../../src/engine/index.js';
+import { loadInputs } from '../../src/model/index.js';
+import { Recorder, parseReplay } from '../../src/session/replay.js';
+import { runHeadless } from '../../src/session/run.js';
+import { verifyReplay } from '../../src/session/verify.js';
+import { SCENARIOS, type FixtureScenario } from '../fixtures/pre-lean/scenarios.js';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const dir = join(here, '../fixtures/pre-lean');
+const root = join(here, '../..');
+const table = JSON.parse(readFileSync(join(dir, 'digests.json'), 'utf8')) as Record<string, { seed: number; events: number; last: string; summary: string }[]>;
+
+function engineFor(s: FixtureScenario, seed: number): Engine {
+  const netText = s.netText ?? readFileSync(join(root, s.net), 'utf8');
+  const noiseText = s.noiseText ?? readFileSync(join(root, s.noise), 'utf8');
+  const { programSet, noise } = loadInputs({ netFile: s.net, netText, noiseFile: s.noise, noiseText, seed });
+  return new Engine(programSet, noise);
+}
+
+describe('replays recorded before the lean core', () => {
+  for (const s of SCENARIOS.filter((x) => x.replayEvents)) {
+    it(`${s.name}: still verifies, every event and digest`, () => {
+      const file = join(dir, `${s.name}.replay.json`);
+      const r = parseReplay(readFileSync(file, 'utf8'), file);
+      const v = verifyReplay(r);
+      expect(v.divergence).toBeNull();
+      expect(v.ok).toBe(true);
+      expect(v.checked).toBe(r.events.length);
+    });
+  }
+});
+
+describe('digests and summaries recorded before the lean core', () => {
+  for (const s of SCENARIOS) {
+    it(`${s.name}: the same last digest and summary bytes for ${s.seeds.length} seeds`, () => {
+      const got = s.seeds.map((seed) => {
+        const engine = engineFor(s, seed);
+        const rec = new Recorder(engine, { seed, breakpoints: [], expectations: [] });
+        const r = runHeadless(engine, { seed, maxEvents: s.events, onEvent: (ev, w) => rec.add(ev, w) });
+        return {
+          seed,
+          events: r.summary.events,
+          last: rec.events[rec.events.length - 1]?.digest ?? '',
+          summary: createHash('sha256').update(JSON.stringify(r.summary)).digest('hex'),
+        };
+      });
+      expect(got).toEqual(table[s.name]);
+    });
+  }
+});

@@ -67,6 +67,7 @@ function describeMessage(m: Message): string {
 
 function restore(b: Bindings, snap: DeepestFailure['bound']): void {
   b.clear();
+  b.dirty = true;
   for (const [k, v] of snap.pairs) {
     b.pairs.set(k, v);
     b.usedQubits.add(v);

@@ -24,10 +24,21 @@ interface BodyContext extends MatchContext {
   readonly rule: Rule;
   readonly ev: EngineEvent;
   readonly fire: FireRecord;
+  /** Whether to record action phrases for the narration (off in headless runs). */
+  readonly detail: boolean;
 }
 
 function fail(ctx: BodyContext, step: { pos: Step['pos'] }, message: string, fix?: string): never {
   throw new ProgramError(message, { pos: step.pos, node: ctx.node, rule: ctx.rule.name, fix });
+}
+
+type EventList = 'sends' | 'deliveries' | 'discards' | 'delivers';
+
+/** Appends to one of the event's lists, which start as one shared, frozen empty list. */
+function push<K extends EventList>(ev: EngineEvent, key: K, item: EngineEvent[K][number]): void {
+  const list = ev[key] as EngineEvent[K][number][];
+  if (list.length === 0) (ev[key] as EngineEvent[K][number][]) = [item];
+  else list.push(item);
 }
 
 /** The record of a bound pair that is still held, or a program error. */
@@ -54,6 +65,7 @@ function value(ctx: BodyContext, e: Expr): Value {
 /** A half leaves this node's memory; remember its last record so later steps can still read it. */
 function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   const node = ctx.w.nodes[ctx.node];
+  ctx.scope.bindings.dirty = true;
   ctx.scope.bindings.released.set(name, pairValue(rec, ctx.scope.now));
   delete node.pairs[rec.qubit];
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
@@ -74,11 +86,11 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   decayTo(ctx.net, w, rec.qubit, t);
   w.qubits[rec.qubit].frozen = true;
   release(ctx, name, rec);
-  ctx.ev.delivers.push({ node: ctx.node, pair: rec.id });
+  push(ctx.ev, 'delivers', { node: ctx.node, pair: rec.id });
   const other = w.halves[rec.id];
   if (!other || other.node === ctx.node) {
     w.halves[rec.id] = { node: ctx.node, qubit: rec.qubit, time: t };
-    ctx.fire.actions.push(`delivered its half of ${shortPairId(rec.id)}`);
+    if (ctx.detail) ctx.fire.actions.push(`delivered its half of ${shortPairId(rec.id)}`);
     return;
   }
   delete w.halves[rec.id];
@@ -87,10 +99,10 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
   const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
   addDelivery(w, record);
-  ctx.ev.deliveries.push(record);
+  push(ctx.ev, 'deliveries', record);
   traceOut(w, a);
   traceOut(w, b);
-  ctx.fire.actions.push(`delivered ${shortPairId(rec.id)} (F ${record.fidelity.toFixed(3)})`);
+  if (ctx.detail) ctx.fire.actions.push(`delivered ${shortPairId(rec.id)} (F ${record.fidelity.toFixed(3)})`);
 }
 
 /** Runs a block of steps. */
@@ -107,7 +119,7 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         if (angle !== undefined && typeof angle !== 'number') fail(ctx, step, `angle "${step.angle!.compiled.source}" is not a number`);
         withCap(ctx, step, () => gate(ctx.net, w, step.op, recs.map((r) => r.qubit), angle as number | undefined, MAX_CLUSTER_QUBITS));
         scope.now += recs.length === 2 ? noise.two.durationNs : noise.single.durationNs;
-        ctx.fire.actions.push(`${step.op} ${recs.map((r) => shortPairId(r.id)).join('→')}`);
+        if (ctx.detail) ctx.fire.actions.push(`${step.op} ${recs.map((r) => shortPairId(r.id)).join('→')}`);
         break;
       }
       case 'measure': {
@@ -115,9 +127,12 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         decayTo(ctx.net, w, rec.qubit, scope.now);
         const b = measureQubit(ctx.net, w, rec.qubit, step.basis, draw(w));
         release(ctx, step.on, rec);
-        if (step.as) scope.bindings.values.set(step.as, b);
+        if (step.as) {
+          scope.bindings.dirty = true;
+          scope.bindings.values.set(step.as, b);
+        }
         scope.now += noise.measure.durationNs;
-        ctx.fire.actions.push(`measured ${shortPairId(rec.id)} in ${step.basis}: ${b}`);
+        if (ctx.detail) ctx.fire.actions.push(`measured ${shortPairId(rec.id)} in ${step.basis}: ${b}`);
         break;
       }
       case 'bell_measure': {
@@ -132,10 +147,11 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         const xb = measureQubit(ctx.net, w, r2.qubit, 'z', draw(w));
         release(ctx, step.on[0], r1);
         release(ctx, step.on[1], r2);
+        scope.bindings.dirty = true;
         scope.bindings.values.set(step.as[0], zb);
         scope.bindings.values.set(step.as[1], xb);
         scope.now += noise.two.durationNs + noise.single.durationNs + noise.measure.durationNs;
-        ctx.fire.actions.push(`Bell-measured ${shortPairId(r1.id)} and ${shortPairId(r2.id)}: z=${zb} x=${xb}`);
+        if (ctx.detail) ctx.fire.actions.push(`Bell-measured ${shortPairId(r1.id)} and ${shortPairId(r2.id)}: z=${zb} x=${xb}`);
         break;
       }
       case 'send': {
@@ -148,14 +164,14 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
           fail(ctx, step, `no fiber path from ${ctx.node} to ${to}`, 'send only to nodes connected through links');
         }
         const rec = send(ctx.net, w, { from: ctx.node, to, kind: step.msgKind, pair: pair as string | null, data }, scope.now);
-        ctx.ev.sends.push(rec);
-        ctx.fire.actions.push(`sent ${step.msgKind} to ${to}${rec.dropped ? ' (lost)' : ''}`);
+        push(ctx.ev, 'sends', rec);
+        if (ctx.detail) ctx.fire.actions.push(`sent ${step.msgKind} to ${to}${rec.dropped ? ' (lost)' : ''}`);
         break;
       }
       case 'stage': {
         const rec = held(ctx, step.pair, step);
         rec.stage = step.to;
-        ctx.fire.actions.push(`${shortPairId(rec.id)} → ${step.to}`);
+        if (ctx.detail) ctx.fire.actions.push(`${shortPairId(rec.id)} → ${step.to}`);
         break;
       }
       case 'note': {
@@ -176,7 +192,7 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
           gate(ctx.net, w, 'z', [rec.qubit], undefined, MAX_CLUSTER_QUBITS);
           scope.now += noise.single.durationNs;
         }
-        ctx.fire.actions.push(`corrected ${shortPairId(rec.id)}${x || z ? ` (${x ? 'X' : ''}${z ? 'Z' : ''})` : ' (none)'}`);
+        if (ctx.detail) ctx.fire.actions.push(`corrected ${shortPairId(rec.id)}${x || z ? ` (${x ? 'X' : ''}${z ? 'Z' : ''})` : ' (none)'}`);
         break;
       }
       case 'rebind': {
@@ -188,15 +204,15 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
           if (typeof id !== 'string') fail(ctx, step, `id "${step.id.compiled.source}" gave ${JSON.stringify(id)}, not a pair id`);
           rec.id = id;
         }
-        ctx.fire.actions.push(`${shortPairId(before)} is now ${shortPairId(rec.id)} with ${rec.partner}`);
+        if (ctx.detail) ctx.fire.actions.push(`${shortPairId(before)} is now ${shortPairId(rec.id)} with ${rec.partner}`);
         break;
       }
       case 'discard': {
         const rec = held(ctx, step.pair, step);
         traceOut(w, rec.qubit);
         release(ctx, step.pair, rec);
-        ctx.ev.discards.push({ node: ctx.node, pair: rec.id });
-        ctx.fire.actions.push(`discarded ${shortPairId(rec.id)}`);
+        push(ctx.ev, 'discards', { node: ctx.node, pair: rec.id });
+        if (ctx.detail) ctx.fire.actions.push(`discarded ${shortPairId(rec.id)}`);
         break;
       }
       case 'deliver':
@@ -206,7 +222,11 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         runSteps(ctx, truthy(value(ctx, step.cond), step.cond, ctx.node, ctx.rule.name) ? step.then : step.else);
         break;
       case 'log':
-        ctx.fire.log.push(step.parts.map((p) => (typeof p === 'string' ? p : formatValue(value(ctx, p)))).join(''));
+        {
+        const line = step.parts.map((p) => (typeof p === 'string' ? p : formatValue(value(ctx, p)))).join('');
+        if (ctx.fire.log.length === 0) ctx.fire.log = [line];
+        else ctx.fire.log.push(line);
+      }
         break;
     }
   }

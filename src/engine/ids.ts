@@ -10,13 +10,38 @@ interface ParsedId {
   readonly tag: string;
 }
 
-const ID = /^([a-z][a-z0-9-]*)~([a-z][a-z0-9-]*)#(.+)$/;
+/** Whether c (a char code) may start a node id ([a-z]) or continue one ([a-z0-9-]). */
+function nameChar(c: number, first: boolean): boolean {
+  return (c >= 97 && c <= 122) || (!first && ((c >= 48 && c <= 57) || c === 45));
+}
+
+/** End of a node id starting at i (the index of the first char that does not belong), or -1 if none starts there. */
+function nameEnd(s: string, i: number): number {
+  if (i >= s.length || !nameChar(s.charCodeAt(i), true)) return -1;
+  let k = i + 1;
+  while (k < s.length && nameChar(s.charCodeAt(k), false)) k++;
+  return k;
+}
+
+/** Whether a tag is one or more characters with no line break (what `.+` matches). */
+function validTag(s: string, from: number): boolean {
+  if (from >= s.length) return false;
+  for (let k = from; k < s.length; k++) {
+    const c = s.charCodeAt(k);
+    if (c === 10 || c === 13 || c === 0x2028 || c === 0x2029) return false;
+  }
+  return true;
+}
 
 /** Splits `a~b#tag` into its ends and tag, or undefined for any other string. */
 export function parsePairId(id: string): ParsedId | undefined {
-  const m = ID.exec(id);
-  if (!m) return undefined;
-  return { ends: [m[1], m[2]], tag: m[3] };
+  // the grammar of /^([a-z][a-z0-9-]*)~([a-z][a-z0-9-]*)#(.+)$/, scanned by hand: ids are
+  // parsed on every swap, and a regular expression with captures costs more than the swap's bookkeeping
+  const a = nameEnd(id, 0);
+  if (a < 0 || id.charCodeAt(a) !== 126) return undefined;
+  const b = nameEnd(id, a + 1);
+  if (b < 0 || id.charCodeAt(b) !== 35 || !validTag(id, b + 1)) return undefined;
+  return { ends: [id.slice(0, a), id.slice(a + 1, b)], tag: id.slice(b + 1) };
 }
 
 /** The id of a generated pair. */
@@ -30,14 +55,27 @@ function wrap(tag: string): string {
 
 /** The shared id of the pair that a swap of pairs `a` and `b` makes; symmetric in a and b. */
 export function joinIds(a: string, b: string): string {
-  const [lo, hi] = a <= b ? [a, b] : [b, a];
+  const lo = a <= b ? a : b;
+  const hi = a <= b ? b : a;
   const pl = parsePairId(lo);
   const ph = parsePairId(hi);
   if (pl && ph) {
-    const shared = pl.ends.filter((e) => ph.ends.includes(e));
-    if (shared.length === 1) {
-      const outer = [pl.ends.find((e) => e !== shared[0])!, ph.ends.find((e) => e !== shared[0])!].sort();
-      if (outer[0] !== outer[1]) return `${outer[0]}~${outer[1]}#${wrap(pl.tag)}+${wrap(ph.tag)}`;
+    const [l0, l1] = pl.ends;
+    const [h0, h1] = ph.ends;
+    // the one end both pairs share is where the swap happened; the other two are the outer ends
+    const shared0 = l0 === h0 || l0 === h1;
+    const shared1 = l1 === h0 || l1 === h1;
+    if (shared0 !== shared1) {
+      const s = shared0 ? l0 : l1;
+      const x = shared0 ? l1 : l0;
+      // an id whose two ends are one node has no other end, which reads as "undefined", as
+      // it always has: recorded replays keep their ids
+      if (h0 === s && h1 === s) return `${x}~undefined#${wrap(pl.tag)}+${wrap(ph.tag)}`;
+      const y = h0 === s ? h1 : h0;
+      if (x !== y) {
+        const [o0, o1] = x < y ? [x, y] : [y, x];
+        return `${o0}~${o1}#${wrap(pl.tag)}+${wrap(ph.tag)}`;
+      }
     }
   }
   return `(${lo})+(${hi})`;

@@ -1,5 +1,5 @@
 /** The network engine: the only public surface of engine/. */
-export { Engine, applyNext, hasNext, initialWorld, peekNextTime, quiescence, type AdvanceHooks } from './step.js';
+export { Engine, applyNext, hasNext, initialWorld, peekNextTime, quiescence, type AdvanceHooks, type AdvanceOptions, type AdvanceResult } from './step.js';
 export { Net, derivedSuccess, type LinkInfo } from './net.js';
 export { ProgramError } from './errors.js';
 export { joinIds, linkPairId, parsePairId, shortPairId } from './ids.js';

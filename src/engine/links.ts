@@ -6,15 +6,13 @@
 import { linkPairId } from './ids.js';
 import { addCluster } from './qubits.js';
 import { heapPush } from './heap.js';
-import { drawUniform, geometricAttempts } from './rng.js';
+import { drawInPlace, geometricAttempts } from './rng.js';
 import type { Net } from './net.js';
 import type { World } from './types.js';
 
 /** Draws one uniform number from the world's generator. */
 export function draw(w: World): number {
-  const [u, next] = drawUniform(w.rng);
-  w.rng = next;
-  return u;
+  return drawInPlace(w.rng);
 }
 
 export function freeSlots(net: Net, w: World, link: string, node: string): number {

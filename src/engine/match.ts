@@ -80,9 +80,10 @@ export function truthy(v: Value, expr: Expr, node: string, rule: string): boolea
 }
 
 /** Free halves at the node matching a `have` guard's partner, stage and age window, in pick order. */
-export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<string>): PairRecord[] {
+export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<string>, into: PairRecord[] = []): PairRecord[] {
   const now = ctx.scope.now;
-  const out: PairRecord[] = [];
+  const out = into;
+  out.length = 0;
   const pairs = ctx.w.nodes[ctx.node].pairs;
   for (const q in pairs) {
     const rec = pairs[q];
@@ -111,10 +112,12 @@ function snapshot(b: Bindings): DeepestFailure['bound'] {
 }
 
 interface Search {
-  readonly ctx: MatchContext;
-  readonly rule: Rule;
-  readonly deepest?: { value?: DeepestFailure };
+  ctx: MatchContext;
+  rule: Rule;
+  deepest?: { value?: DeepestFailure };
   budget: number;
+  /** One candidate list per guard, reused from attempt to attempt (a guard's list is only read while its level of the search runs). */
+  readonly lists: PairRecord[][];
 }
 
 function fail(s: Search, i: number): false {
@@ -124,6 +127,7 @@ function fail(s: Search, i: number): false {
 }
 
 function bindPair(b: Bindings, name: string | undefined, rec: PairRecord): void {
+  b.dirty = true;
   b.usedQubits.add(rec.qubit);
   if (name) b.pairs.set(name, rec.qubit);
 }
@@ -144,7 +148,8 @@ function search(s: Search, i: number): boolean {
   switch (g.kind) {
     case 'have': {
       const partner = evalNode(g.partner, ctx, rule.name);
-      const cands = haveCandidates(ctx, g, partner, b.usedQubits);
+      while (s.lists.length <= i) s.lists.push([]);
+      const cands = haveCandidates(ctx, g, partner, b.usedQubits, s.lists[i]);
       if (cands.length < g.count) return fail(s, i);
       if (g.count === 1) {
         for (const rec of cands) {
@@ -183,6 +188,7 @@ function search(s: Search, i: number): boolean {
       for (let k = 0; k < inbox.length; k++) {
         const m = inbox[k];
         if (m.kind !== g.msgKind || (from !== undefined && m.from !== from) || b.usedMessages.has(m.id)) continue;
+        b.dirty = true;
         b.usedMessages.add(m.id);
         if (g.as) b.messages.set(g.as, m);
         if (search(s, i + 1)) return true;
@@ -204,5 +210,14 @@ function search(s: Search, i: number): boolean {
  */
 export function matchRule(ctx: MatchContext, rule: Rule, deepest?: { value?: DeepestFailure }): boolean {
   ctx.scope.bindings.clear();
-  return search({ ctx, rule, deepest, budget: SEARCH_BUDGET }, 0);
+  if (deepest !== undefined) return search({ ctx, rule, deepest, budget: SEARCH_BUDGET, lists: [] }, 0);
+  // the engine's own attempts share one search record: matching is synchronous and never nested
+  const s = shared;
+  s.ctx = ctx;
+  s.rule = rule;
+  s.budget = SEARCH_BUDGET;
+  const ok = search(s, 0);
+  return ok;
 }
+
+const shared: Search = { ctx: undefined as unknown as MatchContext, rule: undefined as unknown as Rule, budget: 0, lists: [] };

@@ -6,7 +6,7 @@ import type { Value } from '../expr/types.js';
 import { heapPush } from './heap.js';
 import { draw } from './links.js';
 import type { Net } from './net.js';
-import type { SendRecord, World } from './types.js';
+import type { Message, SendRecord, World } from './types.js';
 
 /** Lost messages remembered in the world for explanations. */
 export const LOST_KEPT = 32;
@@ -57,10 +57,10 @@ function describe(f: { from?: string; to?: string; msgKind?: string }): string {
 }
 
 /** A message reaches its receiver's inbox. */
-export function arrive(w: World, id: string): { to: string; from: string; kind: string; pair: string | null } {
+export function arrive(w: World, id: string): Message {
   const m = w.inflight[id];
   delete w.inflight[id];
   w.nodes[m.to].inbox.push(m);
   w.counters.arrived++;
-  return { to: m.to, from: m.from, kind: m.kind, pair: m.pair };
+  return m;
 }

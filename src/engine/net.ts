@@ -20,6 +20,10 @@ export interface LinkInfo {
   readonly pairRho: Rho;
   /** Its fidelity to Φ+. */
   readonly pairFidelity: number;
+  /** That fidelity as event summaries print it (three decimals). */
+  readonly fidelityText: string;
+  /** The link's distinct ends, sorted: the nodes a herald touches. */
+  readonly ends: readonly string[];
 }
 
 /** Success probability from fiber loss and detector efficiency (REFERENCES.md, fiber and links). */
@@ -81,8 +85,11 @@ export class Net {
         pSuccess: derivedSuccess(noise, def.lengthM),
         periodNs,
         heraldNs: Math.round((def.lengthM / 2 / this.speed) * 1e9),
-        pairRho: pairState(noise),
+        // frozen: every cluster made by this link starts from it and copies it on first change
+        pairRho: Object.freeze(pairState(noise)),
         pairFidelity: fidelityPhiPlus(pairState(noise)),
+        fidelityText: fidelityPhiPlus(pairState(noise)).toFixed(3),
+        ends: Object.freeze(def.ends[0] === def.ends[1] ? [def.ends[0]] : [def.ends[0], def.ends[1]]),
       });
       at.get(def.ends[0])?.push(def.id);
       at.get(def.ends[1])?.push(def.id);

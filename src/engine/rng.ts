@@ -30,6 +30,37 @@ export function seedRng(seed: number): RngState {
   return [...gen.getState()] as RngState;
 }
 
+/**
+ * A uniform draw in [0, 1) that advances `s` in place: the same numbers as pure-rand's
+ * `uniformFloat64` over `xoroshiro128plusFromState(s)` (two steps, 26 + 27 bits), without
+ * creating a generator per draw. State order is pure-rand's: [s01, s00, s11, s10].
+ */
+export function drawInPlace(s: RngState): number {
+  let s01 = s[0];
+  let s00 = s[1];
+  let s11 = s[2];
+  let s10 = s[3];
+  const v1 = (s00 + s10) & 0x3ffffff;
+  let a0 = s10 ^ s00;
+  let a1 = s11 ^ s01;
+  let t00 = s00;
+  let t01 = s01;
+  s00 = (t00 << 24) ^ (t01 >>> 8) ^ a0 ^ (a0 << 16);
+  s01 = (t01 << 24) ^ (t00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+  s10 = (a1 << 5) ^ (a0 >>> 27);
+  s11 = (a0 << 5) ^ (a1 >>> 27);
+  const v2 = (s00 + s10) & 0x7ffffff;
+  a0 = s10 ^ s00;
+  a1 = s11 ^ s01;
+  t00 = s00;
+  t01 = s01;
+  s[1] = (t00 << 24) ^ (t01 >>> 8) ^ a0 ^ (a0 << 16);
+  s[0] = (t01 << 24) ^ (t00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+  s[3] = (a1 << 5) ^ (a0 >>> 27);
+  s[2] = (a0 << 5) ^ (a1 >>> 27);
+  return v1 * 1.4901161193847656e-8 + v2 * 1.1102230246251565e-16;
+}
+
 /** A uniform draw in [0, 1) and the next state. */
 export function drawUniform(state: RngState): [number, RngState] {
   const gen = xoroshiro128plusFromState(state);

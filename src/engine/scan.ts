@@ -31,8 +31,11 @@ function describeBound(ctx: MatchContext): Record<string, string> {
   return out;
 }
 
-/** Tries the node's rules until none fires. */
-export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): void {
+const NO_BOUND: Record<string, string> = Object.freeze({}) as Record<string, string>;
+const NO_LINES: string[] = Object.freeze([]) as unknown as string[];
+
+/** Tries the node's rules until none fires; with `detail` off, firings record only the rule. */
+export function scanNode(net: Net, w: World, node: string, ev: EngineEvent, detail = true): void {
   const rules = net.rules.get(node);
   if (!rules || rules.length === 0) return;
   const state = w.nodes[node];
@@ -51,9 +54,9 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
     }
     scope.now = w.time;
     let rule: Rule | undefined;
-    for (const r of rules) {
-      if (matchRule(ctx, r)) {
-        rule = r;
+    for (let i = 0; i < rules.length; i++) {
+      if (matchRule(ctx, rules[i])) {
+        rule = rules[i];
         break;
       }
     }
@@ -67,12 +70,18 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent): voi
       });
     }
     last = rule;
-    const fire: FireRecord = { node, rule: rule.name, bound: describeBound(ctx), actions: [], log: [] };
+    const fire: FireRecord = { node, rule: rule.name, bound: detail ? describeBound(ctx) : NO_BOUND, actions: detail ? [] : NO_LINES, log: NO_LINES };
     // consume the matched messages before the body runs, so it cannot match them again
     const used = scope.bindings.usedMessages;
-    if (used.size > 0) state.inbox = state.inbox.filter((m) => !used.has(m.id));
-    runSteps({ w, node, scope, nodeIds: net.nodeSet, net, rule, ev, fire }, rule.do);
-    ev.fires.push(fire);
+    if (used.size > 0) {
+      const inbox = state.inbox;
+      let k = 0;
+      for (let i = 0; i < inbox.length; i++) if (!used.has(inbox[i].id)) inbox[k++] = inbox[i];
+      inbox.length = k;
+    }
+    runSteps({ w, node, scope, nodeIds: net.nodeSet, net, rule, ev, fire, detail }, rule.do);
+    if (ev.fires.length === 0) ev.fires = [fire];
+    else ev.fires.push(fire);
     state.fired[rule.name] = (state.fired[rule.name] ?? 0) + 1;
     if (scope.now > w.time) state.busyUntil = scope.now;
   }

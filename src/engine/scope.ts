@@ -19,8 +19,15 @@ export class Bindings {
   readonly messageViews = new Map<string, ValueRecord>();
   /** The last record of bound pairs that left the node earlier in the body (measured, discarded, delivered). */
   readonly released = new Map<string, ValueRecord>();
+  /**
+   * Set by whoever adds to the maps above, so that clearing an unused set of bindings (most
+   * rule attempts fail at their first guard) costs one test.
+   */
+  dirty = false;
 
   clear(): void {
+    if (!this.dirty) return;
+    this.dirty = false;
     if (this.pairs.size) this.pairs.clear();
     if (this.messages.size) this.messages.clear();
     if (this.values.size) this.values.clear();
@@ -128,6 +135,49 @@ export class RuleScope implements Scope {
     const v = b.values.get(name);
     if (v !== undefined) return v;
     if (this.net.nodeSet.has(name)) return name;
+    return undefined;
+  }
+
+  member(name: string, field: string): Value | undefined {
+    const b = this.bindings;
+    const q = b.pairs.get(name);
+    if (q !== undefined) {
+      const rec = this.w.nodes[this.node].pairs[q];
+      // a released pair (and any field it lacks) takes the general path
+      if (rec === undefined) return undefined;
+      // noted values shadow the record's own fields, as in pairValue
+      if (Object.hasOwn(rec.notes, field)) return rec.notes[field];
+      switch (field) {
+        case 'id':
+          return rec.id;
+        case 'partner':
+          return rec.partner;
+        case 'stage':
+          return rec.stage;
+        case 'age':
+          return this.now - rec.born;
+        case 'born':
+          return rec.born;
+      }
+      return undefined;
+    }
+    const m = b.messages.get(name);
+    if (m !== undefined) {
+      // data fields shadow the message's own fields, as in messageValue
+      if (Object.hasOwn(m.data, field)) return m.data[field];
+      switch (field) {
+        case 'kind':
+          return m.kind;
+        case 'from':
+          return m.from;
+        case 'to':
+          return m.to;
+        case 'pair':
+          return m.pair;
+        case 'sent':
+          return m.sent;
+      }
+    }
     return undefined;
   }
 

@@ -13,7 +13,7 @@ import { seedRng } from './rng.js';
 import { scanNode } from './scan.js';
 import { shortPairId } from './ids.js';
 import { settle, thaw, thawNode } from './thaw.js';
-import type { EngineEvent, Scheduled, World } from './types.js';
+import type { DeliveryRecord, EngineEvent, FireRecord, Scheduled, SendRecord, World } from './types.js';
 
 /** The world before any event: empty memories, every link attempting. */
 export function initialWorld(net: Net, seed: number): World {
@@ -43,7 +43,7 @@ export function initialWorld(net: Net, seed: number): World {
 
 /** The nodes whose state an event may change: its link's ends, its receiver, or the woken node. */
 function touchedBy(net: Net, w: World, s: Scheduled): readonly string[] {
-  if (s.type === 'herald') return net.links.get(s.link)!.def.ends;
+  if (s.type === 'herald') return net.links.get(s.link)!.ends;
   if (s.type === 'arrive') return [w.inflight[s.message].to];
   return [s.node];
 }
@@ -63,51 +63,103 @@ export function peekNextTime(w: World): number | undefined {
   return w.queue[0]?.time;
 }
 
-/** Applies the next event to a mutable (draft) world; null when nothing is left. */
-export function applyNext(net: Net, w: World): EngineEvent | null {
+const NONE: readonly never[] = Object.freeze([]);
+
+/**
+ * An applied event. Its one-line summary is built when first read: headless runs that only
+ * count events never pay for the text.
+ */
+class AppliedEvent implements EngineEvent {
+  node = '';
+  nodes: string[] = NONE as never;
+  fires: FireRecord[] = NONE as never;
+  sends: SendRecord[] = NONE as never;
+  deliveries: DeliveryRecord[] = NONE as never;
+  discards: { node: string; pair: string }[] = NONE as never;
+  delivers: { node: string; pair: string }[] = NONE as never;
+  pair?: string;
+  message?: string;
+  /** What the summary's first half is built from (see `summary`). */
+  cause: Cause = { link: '', from: '', kind: '', about: null, why: '', fidelity: '' };
+  private text: string | undefined;
+
+  constructor(
+    readonly index: number,
+    readonly time: number,
+    readonly type: EngineEvent['type'],
+  ) {}
+
+  get summary(): string {
+    if (this.text === undefined) this.text = summaryOf(this);
+    return this.text;
+  }
+}
+
+interface Cause {
+  link: string;
+  from: string;
+  kind: string;
+  about: string | null;
+  why: string;
+  fidelity: string;
+}
+
+function summaryOf(ev: AppliedEvent): string {
+  const c = ev.cause;
+  let base: string;
+  if (ev.type === 'herald') base = `${c.link} made pair ${ev.pair} (F ${c.fidelity})`;
+  else if (ev.type === 'arrive') base = `${ev.node} got ${c.kind} from ${c.from}${c.about ? ` about ${shortPairId(c.about)}` : ''}`;
+  else base = `${ev.node} woke (${c.why})`;
+  if (ev.fires.length === 0) return base;
+  let fired = '';
+  for (const f of ev.fires) fired += `${fired ? ', ' : ''}${f.node}.${f.rule}`;
+  return `${base}; fired ${fired}`;
+}
+
+/**
+ * Applies the next event to a mutable (draft) world; null when nothing is left. With
+ * `detail` off, rule firings record only which rule fired (no action phrases or bound
+ * names): what headless runs, breakpoints and digests need, at a fraction of the cost.
+ */
+export function applyNext(net: Net, w: World, detail = true): EngineEvent | null {
   let s: Scheduled | undefined;
   do {
     s = heapPop(w.queue);
     if (!s) return null;
   } while (isStale(w, s));
   w.time = s.time;
-  const ev: EngineEvent = { index: w.events++, time: s.time, type: s.type, node: '', nodes: [], summary: '', fires: [], sends: [], deliveries: [], discards: [], delivers: [] };
-  let touched: string[];
-  let base: string;
+  const ev = new AppliedEvent(w.events++, s.time, s.type);
+  let touched: readonly string[];
   switch (s.type) {
     case 'herald': {
       const info = net.links.get(s.link)!;
-      const id = herald(net, w, s.link, s.emitted);
-      ev.pair = id;
-      touched = info.def.ends[0] === info.def.ends[1] ? [info.def.ends[0]] : [info.def.ends[0], info.def.ends[1]];
+      ev.pair = herald(net, w, s.link, s.emitted);
+      touched = info.ends;
+      ev.cause.link = s.link;
       // a fresh pair's state is the link's, with no decay applied yet
-      base = `${s.link} made pair ${id} (F ${info.pairFidelity.toFixed(3)})`;
+      ev.cause.fidelity = info.fidelityText;
       break;
     }
     case 'arrive': {
       const m = arrive(w, s.message);
       ev.message = s.message;
       touched = [m.to];
-      base = `${m.to} got ${m.kind} from ${m.from}${m.pair ? ` about ${shortPairId(m.pair)}` : ''}`;
+      ev.cause.from = m.from;
+      ev.cause.kind = m.kind;
+      ev.cause.about = m.pair;
       break;
     }
     case 'wake': {
       w.nodes[s.node].nextWake = null;
       touched = [s.node];
-      base = `${s.node} woke (${s.why})`;
+      ev.cause.why = s.why;
       break;
     }
   }
   ev.node = touched[0];
-  for (const n of touched) scanNode(net, w, n, ev);
+  for (let i = 0; i < touched.length; i++) scanNode(net, w, touched[i], ev, detail);
   // rules fire only at the nodes an event touched, and a link's ends are sorted already
-  ev.nodes = touched;
-  if (ev.fires.length === 0) ev.summary = base;
-  else {
-    let fired = '';
-    for (const f of ev.fires) fired += `${fired ? ', ' : ''}${f.node}.${f.rule}`;
-    ev.summary = `${base}; fired ${fired}`;
-  }
+  ev.nodes = touched as string[];
   return ev;
 }
 
@@ -160,33 +212,42 @@ export class Engine {
   }
 
   /**
-   * Up to `max` events in one `produce`. `before` may refuse the next event (seeing the
-   * draft and the next event's time); `after` sees each applied event and may end the batch.
+   * Up to `max` events on one working copy (one `produce` under immer). `before` may refuse
+   * the next event (seeing the draft and the next event's time); `after` sees each applied
+   * event and may end the run. `keep` says which events to return (all by default; `last`
+   * or `none` keep nothing else alive); `detail: false` records only which rules fired.
    */
-  advance(world: World, max: number, hooks: AdvanceHooks = {}): { world: World; events: EngineEvent[]; exhausted: boolean } {
+  advance(world: World, max: number, hooks: AdvanceHooks = {}, opts: AdvanceOptions = {}): AdvanceResult {
+    const keep = opts.keep ?? 'all';
+    const detail = opts.detail ?? true;
     const events: EngineEvent[] = [];
+    let count = 0;
     let exhausted = false;
+    const net = this.net;
+    const { before, after } = hooks;
     const batch = (d: World) => {
-      while (events.length < max) {
+      while (count < max) {
         const t = peekNextTime(d);
         if (t === undefined) {
           exhausted = true;
           break;
         }
-        if (hooks.before?.(d, t)) break;
-        const ev = applyNext(this.net, d)!;
-        events.push(ev);
-        if (hooks.after?.(ev, d)) break;
+        if (before !== undefined && before(d, t)) break;
+        const ev = applyNext(net, d, detail)!;
+        count++;
+        if (keep === 'all') events.push(ev);
+        else if (keep === 'last') events[0] = ev;
+        if (after !== undefined && after(ev, d)) break;
       }
     };
     if (this.mode === 'immer') {
       const next = this.immer.produce(world, batch) as World;
-      return { world: events.length ? next : world, events, exhausted };
+      return { world: count ? next : world, events, count, exhausted };
     }
-    // headless: one working copy per batch instead of proxies on every access
+    // one working copy for the whole call instead of proxies on every access
     const work = thaw(world);
     batch(work);
-    return { world: events.length ? settle(world, work) : world, events, exhausted };
+    return { world: count ? settle(world, work) : world, events, count, exhausted };
   }
 }
 
@@ -195,4 +256,21 @@ export interface AdvanceHooks {
   before?: (draft: World, nextTime: number) => boolean;
   /** Return true to stop after this event. */
   after?: (ev: EngineEvent, draft: World) => boolean;
+}
+
+export interface AdvanceOptions {
+  /** Which applied events to return: every one (default), only the last, or none. */
+  readonly keep?: 'all' | 'last' | 'none';
+  /** Whether rule firings record their action phrases and bound names (default true). */
+  readonly detail?: boolean;
+}
+
+export interface AdvanceResult {
+  readonly world: World;
+  /** The events kept (see `AdvanceOptions.keep`). */
+  readonly events: EngineEvent[];
+  /** Events applied. */
+  readonly count: number;
+  /** True when the queue ran dry. */
+  readonly exhausted: boolean;
 }

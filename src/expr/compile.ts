@@ -61,6 +61,21 @@ function buildName(node: Extract<ExprNode, { type: 'name' }>, source: string): R
 function buildMember(node: Extract<ExprNode, { type: 'member' }>, object: Run, source: string): Run {
   const { property } = node;
   const of = node.object;
+  const general = memberOf(node, object, source);
+  if (of.type !== 'name') return general;
+  const name = of.name;
+  return (s) => {
+    if (s.member !== undefined) {
+      const v = s.member(name, property);
+      if (v !== undefined) return v;
+    }
+    return general(s);
+  };
+}
+
+function memberOf(node: Extract<ExprNode, { type: 'member' }>, object: Run, source: string): Run {
+  const { property } = node;
+  const of = node.object;
   return (s) => {
     const o = object(s);
     if (isRecord(o) && Object.hasOwn(o, property)) {

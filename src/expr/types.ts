@@ -52,4 +52,10 @@ export interface Scope {
   readonly functions: Readonly<Record<string, ExprFunction>>;
   /** Names this scope can bind, used only to suggest a fix for an unknown name. */
   listNames?(): Iterable<string>;
+  /**
+   * A shortcut for `name.field`: the same value that reading the field of `lookup(name)`
+   * would give, or undefined to take the general path (which also explains errors). Lets a
+   * scope answer without building the whole record.
+   */
+  member?(name: string, field: string): Value | undefined;
 }

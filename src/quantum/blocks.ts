@@ -19,24 +19,44 @@ export interface BlockLayout {
   readonly s11: number;
 }
 
-// Shared, grown on demand: kernels are synchronous and read it right after blockLayout fills it.
+// Layouts of the sizes that occur in a network (clusters of up to 5 qubits) are computed once
+// and kept; larger ones use a shared scratch array, grown on demand (kernels are synchronous
+// and read it right after blockLayout fills it).
+const CACHED_QUBITS = 5;
+const layoutCache: (BlockLayout | undefined)[] = new Array(CACHED_QUBITS * CACHED_QUBITS + CACHED_QUBITS + 1);
 let baseScratch = new Int32Array(16);
 
-/** The block layout of qubit q in an n-qubit state (valid until the next call). */
-export function blockLayout(n: number, q: number): BlockLayout {
+function fillBases(n: number, q: number, bases: Int32Array): void {
   const dim = dimOf(n);
   const mask = maskOf(n, q);
   const step = 2 * mask;
-  const count = (dim * dim) >> 2;
-  if (baseScratch.length < count) baseScratch = new Int32Array(count);
-  const bases = baseScratch;
   let k = 0;
   for (let rh = 0; rh < dim; rh += step)
     for (let rl = 0; rl < mask; rl++) {
       const row = 2 * (rh + rl) * dim;
       for (let ch = 0; ch < dim; ch += step) for (let cl = 0; cl < mask; cl++) bases[k++] = row + 2 * (ch + cl);
     }
-  return { bases, count, s01: 2 * mask, s10: 2 * mask * dim, s11: 2 * mask * (dim + 1) };
+}
+
+/** The block layout of qubit q in an n-qubit state (valid until the next call). */
+export function blockLayout(n: number, q: number): BlockLayout {
+  const dim = dimOf(n);
+  const mask = maskOf(n, q);
+  const count = (dim * dim) >> 2;
+  if (n <= CACHED_QUBITS) {
+    const key = n * CACHED_QUBITS + q;
+    let L = layoutCache[key];
+    if (L === undefined) {
+      const bases = new Int32Array(count);
+      fillBases(n, q, bases);
+      L = { bases, count, s01: 2 * mask, s10: 2 * mask * dim, s11: 2 * mask * (dim + 1) };
+      layoutCache[key] = L;
+    }
+    return L;
+  }
+  if (baseScratch.length < count) baseScratch = new Int32Array(count);
+  fillBases(n, q, baseScratch);
+  return { bases: baseScratch, count, s01: 2 * mask, s10: 2 * mask * dim, s11: 2 * mask * (dim + 1) };
 }
 
 // Scratch space for one 2×2 block; kernels are synchronous, so sharing it is safe.

@@ -90,19 +90,29 @@ export function applyKraus1(rho: Rho, q: number, ops: readonly Mat2[]): Rho {
  */
 export function memoryDecay(rho: Rho, q: number, dtNs: number, t1Ns?: number, t2Ns?: number): Rho {
   checkQubit(rho.n, q);
+  checkDecay(dtNs, t1Ns, t2Ns);
+  if (dtNs === 0 || (t1Ns === undefined && t2Ns === undefined)) return rho;
+  const out = clone(rho);
+  memoryDecayInPlace(out.data, out.n, q, dtNs, t1Ns, t2Ns);
+  return out;
+}
+
+/** Throws unless dt is a finite duration ≥ 0, T1 and T2 (when given) are positive, and T2 ≤ 2·T1. */
+export function checkDecay(dtNs: number, t1Ns?: number, t2Ns?: number): void {
   if (!(dtNs >= 0) || !Number.isFinite(dtNs)) throw new Error(`decay time must be a finite duration ≥ 0 ns, got ${String(dtNs)}`);
-  for (const [name, t] of [['T1', t1Ns], ['T2', t2Ns]] as const) {
-    if (t !== undefined && !(t > 0)) throw new Error(`${name} must be a positive duration, got ${String(t)} ns`);
-  }
+  if (t1Ns !== undefined && !(t1Ns > 0)) throw new Error(`T1 must be a positive duration, got ${String(t1Ns)} ns`);
+  if (t2Ns !== undefined && !(t2Ns > 0)) throw new Error(`T2 must be a positive duration, got ${String(t2Ns)} ns`);
   if (t1Ns !== undefined && t2Ns !== undefined && t2Ns > 2 * t1Ns) {
     throw new Error(`T2 (${t2Ns} ns) must not exceed 2·T1 (${2 * t1Ns} ns): no physical memory dephases slower than that`);
   }
-  if (dtNs === 0 || (t1Ns === undefined && t2Ns === undefined)) return rho;
-  const out = clone(rho);
-  if (t1Ns !== undefined) amplitudeDampInPlace(out.data, out.n, q, 1 - Math.exp(-dtNs / t1Ns));
+}
+
+/** The in-place form of `memoryDecay` for a caller that owns `d` and has run `checkDecay`. */
+export function memoryDecayInPlace(d: Float64Array, n: number, q: number, dtNs: number, t1Ns?: number, t2Ns?: number): void {
+  if (dtNs === 0) return;
+  if (t1Ns !== undefined) amplitudeDampInPlace(d, n, q, 1 - Math.exp(-dtNs / t1Ns));
   if (t2Ns !== undefined) {
     const pureRate = 1 / t2Ns - (t1Ns === undefined ? 0 : 1 / (2 * t1Ns));
-    scaleCoherenceInPlace(out.data, out.n, q, Math.exp(-dtNs * pureRate));
+    scaleCoherenceInPlace(d, n, q, Math.exp(-dtNs * pureRate));
   }
-  return out;
 }

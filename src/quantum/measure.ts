@@ -64,9 +64,21 @@ export function measure(rho: Rho, q: number, basis: Basis, u: number, flip = 0):
   checkBasis(basis);
   if (!(u >= 0 && u < 1)) throw new Error(`uniform draw u must be in [0, 1), got ${String(u)}`);
   checkProbability(flip, 'readout flip probability');
-  const n = rho.n;
   const work = clone(rho);
-  const d = work.data;
+  const dimOut = dimOf(rho.n) >> 1;
+  const out = new Float64Array(2 * dimOut * dimOut);
+  const r = measureInto(work.data, rho.n, q, basis, u, flip, out);
+  return { bit: r.bit, p0: r.p0, rho: { n: rho.n - 1, data: out } };
+}
+
+const outcome = { bit: 0 as 0 | 1, p0: 0 };
+
+/**
+ * The in-place form of `measure` for a caller that owns `d` (an n-qubit state, which it
+ * overwrites): writes the remaining n−1 qubits into `out` and returns the outcome (a shared
+ * object, valid until the next call). Arguments are not checked.
+ */
+export function measureInto(d: Float64Array, n: number, q: number, basis: Basis, u: number, flip: number, out: Float64Array): { readonly bit: 0 | 1; readonly p0: number } {
   // Rotate the measured basis onto Z, so that outcome 0 is always |0⟩.
   if (basis === 'y') unitary1InPlace(d, n, q, SDG);
   if (basis !== 'z') unitary1InPlace(d, n, q, H);
@@ -89,7 +101,6 @@ export function measure(rho: Rho, q: number, basis: Basis, u: number, flip = 0):
   const p = (bit === 0 ? p0 : p1) * total;
 
   const dimOut = dim >> 1;
-  const out = new Float64Array(2 * dimOut * dimOut);
   // Old index of reduced index j: j's bits below qubit q stay, the rest move up past it.
   const low = mask - 1;
   const set = bit ? mask : 0;
@@ -101,5 +112,7 @@ export function measure(rho: Rho, q: number, basis: Basis, u: number, flip = 0):
       out[2 * (r * dimOut + c) + 1] = d[i + 1] / p;
     }
   }
-  return { bit, p0, rho: { n: n - 1, data: out } };
+  outcome.bit = bit;
+  outcome.p0 = p0;
+  return outcome;
 }

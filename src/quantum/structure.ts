@@ -7,10 +7,21 @@ import { checkDistinct, ClusterTooLargeError, dimOf, maskOf, MAX_CLUSTER_QUBITS,
 export function tensor(a: Rho, b: Rho, maxQubits: number = MAX_CLUSTER_QUBITS): Rho {
   const n = a.n + b.n;
   if (n > maxQubits) throw new ClusterTooLargeError(n, maxQubits);
+  const dim = dimOf(n);
+  const out = new Float64Array(2 * dim * dim);
+  tensorInto(a, b, out);
+  return { n, data: out };
+}
+
+/**
+ * Writes a ⊗ b into `out` (2·4^(a.n+b.n) numbers, overwritten). Entries of a that are zero
+ * are skipped, so their blocks stay +0 exactly as in a fresh array.
+ */
+export function tensorInto(a: Rho, b: Rho, out: Float64Array): void {
   const da = dimOf(a.n);
   const db = dimOf(b.n);
   const dim = da * db;
-  const out = new Float64Array(2 * dim * dim);
+  out.fill(0, 0, 2 * dim * dim);
   const x = a.data;
   const y = b.data;
   for (let ra = 0; ra < da; ra++) {
@@ -31,7 +42,6 @@ export function tensor(a: Rho, b: Rho, maxQubits: number = MAX_CLUSTER_QUBITS): 
       }
     }
   }
-  return { n, data: out };
 }
 
 /**
@@ -39,19 +49,25 @@ export function tensor(a: Rho, b: Rho, maxQubits: number = MAX_CLUSTER_QUBITS): 
  * With every qubit listed this is a pure reordering, and the input itself when nothing moves.
  */
 export function keepQubits(rho: Rho, keep: readonly number[]): Rho {
-  const n = rho.n;
-  checkDistinct(n, keep);
+  checkDistinct(rho.n, keep);
   // Keeping every qubit in place is the common case of a pair alone in its cluster.
-  if (keep.length === n && isIdentity(keep)) return rho;
+  if (keep.length === rho.n && isIdentity(keep)) return rho;
+  const dimOut = dimOf(keep.length);
+  const out = new Float64Array(2 * dimOut * dimOut);
+  keepQubitsInto(rho, keep, out);
+  return { n: keep.length, data: out };
+}
+
+/** Writes the reduced state of the listed qubits (distinct, checked by the caller) into `out`. */
+export function keepQubitsInto(rho: Rho, keep: readonly number[], out: Float64Array): void {
+  const n = rho.n;
   const rest: number[] = [];
   for (let q = 0; q < n; q++) if (keep.indexOf(q) < 0) rest.push(q);
   const keepIdx = spread(n, keep);
   const restIdx = spread(n, rest);
   const dimIn = dimOf(n);
-  const m = keep.length;
-  const dimOut = dimOf(m);
+  const dimOut = dimOf(keep.length);
   const src = rho.data;
-  const out = new Float64Array(2 * dimOut * dimOut);
   for (let r = 0; r < dimOut; r++) {
     const rOld = keepIdx[r];
     for (let c = 0; c < dimOut; c++) {
@@ -68,7 +84,6 @@ export function keepQubits(rho: Rho, keep: readonly number[]): Rho {
       out[2 * (r * dimOut + c) + 1] = im;
     }
   }
-  return { n: m, data: out };
 }
 
 function isIdentity(order: readonly number[]): boolean {

@@ -15,8 +15,8 @@ import { summarize, type ExpectationResult, type RunSummary, type Stop } from '.
 /** Events a run applies when neither --until nor --events is given, so that it always ends. */
 export const DEFAULT_MAX_EVENTS = 1_000_000;
 
-/** Events per immer `produce` in headless runs. */
-const BATCH = 2048;
+/** Events between calls of `onBatch` (progress reports). */
+const PROGRESS_EVERY = 4096;
 
 export interface Expectation {
   readonly spec: string;
@@ -48,7 +48,7 @@ export interface RunOptions {
   readonly expectations?: readonly Expectation[];
   /** Sees every applied event and the (draft) world after it, e.g. to record digests. */
   readonly onEvent?: (ev: EngineEvent, world: World) => void;
-  /** Called between batches with the world so far, e.g. for progress on stderr. */
+  /** Called every few thousand events (and at the end) with the world so far, e.g. for progress on stderr. */
   readonly onBatch?: (world: World) => void;
 }
 
@@ -79,34 +79,39 @@ export function runHeadless(engine: Engine, opts: RunOptions, from?: World): Run
   let world = from ?? engine.initial(opts.seed);
   const limit = opts.maxEvents ?? (opts.untilNs === undefined ? DEFAULT_MAX_EVENTS : Infinity);
   const bps = (opts.breakpoints ?? []).filter((b) => b.enabled);
-  const scan = breakpointScanner(engine.net, bps, world);
-  let stop: Stop | undefined;
+  const scan = bps.some((b) => b.kind !== 'stall') ? breakpointScanner(engine.net, bps, world) : undefined;
+  let stop = undefined as Stop | undefined;
   let hitBp: Breakpoint | undefined;
   const startEvents = world.events;
 
-  while (!stop) {
-    const done = world.events - startEvents;
-    if (done >= limit) {
-      stop = { reason: 'events', detail: `reached the event limit (${limit})` };
-      break;
-    }
-    const r = engine.advance(world, Math.min(BATCH, limit - done), {
-      before: (_d, t) => {
-        if (opts.untilNs !== undefined && t > opts.untilNs) {
-          stop = { reason: 'until', detail: `the next event (at ${formatDuration(t)}) is after --until ${formatDuration(opts.untilNs)}` };
+  const done = world.events - startEvents;
+  if (done >= limit) stop = { reason: 'events', detail: `reached the event limit (${limit})` };
+  else {
+    // one working copy for the whole run, and no event kept once its hooks have seen it
+    const r = engine.advance(
+      world,
+      limit - done,
+      {
+        before: (_d, t) => {
+          if (opts.untilNs !== undefined && t > opts.untilNs) {
+            stop = { reason: 'until', detail: `the next event (at ${formatDuration(t)}) is after --until ${formatDuration(opts.untilNs)}` };
+            return true;
+          }
+          return false;
+        },
+        after: (ev, d) => {
+          opts.onEvent?.(ev, d);
+          if (opts.onBatch && (ev.index + 1) % PROGRESS_EVERY === 0) opts.onBatch(d);
+          if (scan === undefined) return false;
+          const hit = scan(ev, d);
+          if (!hit) return false;
+          stop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id} at event ${ev.index}: ${hit.what}` };
+          hitBp = hit.bp;
           return true;
-        }
-        return false;
+        },
       },
-      after: (ev, d) => {
-        opts.onEvent?.(ev, d);
-        const hit = scan(ev, d);
-        if (!hit) return false;
-        stop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id} at event ${ev.index}: ${hit.what}` };
-        hitBp = hit.bp;
-        return true;
-      },
-    });
+      { keep: 'none', detail: false },
+    );
     world = r.world;
     opts.onBatch?.(world);
     if (!stop && r.exhausted) {
@@ -118,6 +123,7 @@ export function runHeadless(engine: Engine, opts: RunOptions, from?: World): Run
       const onStall = bps.find((b) => b.kind === 'stall');
       if (q === 'stall' && onStall) hitBp = onStall;
     }
+    if (!stop) stop = { reason: 'events', detail: `reached the event limit (${limit})` };
   }
   const stall = stop.reason === 'stall' ? stallReport(engine.net, world) : null;
   const expectations = checkExpectations(engine, world, opts.expectations ?? []);

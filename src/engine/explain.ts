@@ -9,6 +9,7 @@ import type { Guard, Rule } from '../model/types.js';
 import { shortPairId } from './ids.js';
 import { evalIn, evalNode, gotCandidates, haveCandidates, matchRule, type DeepestFailure, type MatchContext } from './match.js';
 import type { Net } from './net.js';
+import { heldHalf } from './pair-state.js';
 import { Bindings, RuleScope } from './scope.js';
 import type { Message, World } from './types.js';
 
@@ -190,7 +191,7 @@ function matchPairAbout(ctx: MatchContext, source: string): string | undefined {
   const pairName = m[2] ?? m[3];
   const msg = ctx.scope.bindings.messages.get(msgName);
   const q = ctx.scope.bindings.pairs.get(pairName);
-  const rec = q ? ctx.w.nodes[ctx.node].pairs[q] : undefined;
+  const rec = q !== undefined ? heldHalf(ctx.w.nodes[ctx.node].pairs, q) : undefined;
   if (!msg || !rec) return undefined;
   const all = gotCandidates(ctx, msg.kind, msg.from, new Set());
   const abouts = [...new Set(all.map((x) => x.pair ?? 'no pair'))];

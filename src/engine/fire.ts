@@ -12,7 +12,7 @@ import { draw, releaseSlot } from './links.js';
 import { evalIn, evalNode, truthy, type MatchContext } from './match.js';
 import { send } from './messages.js';
 import type { Net } from './net.js';
-import { twoQubitState } from './pair-state.js';
+import { heldHalf, twoQubitState } from './pair-state.js';
 import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
@@ -45,7 +45,7 @@ function push<K extends EventList>(ev: EngineEvent, key: K, item: EngineEvent[K]
 function held(ctx: BodyContext, name: string, step: Step): PairRecord {
   const qubit = ctx.scope.bindings.pairs.get(name);
   if (qubit === undefined) fail(ctx, step, `"${name}" is not a pair bound by this rule's guards`);
-  const rec = ctx.w.nodes[ctx.node].pairs[qubit];
+  const rec = heldHalf(ctx.w.nodes[ctx.node].pairs, qubit);
   if (!rec) fail(ctx, step, `pair "${name}" was already measured, discarded or delivered earlier in this rule`);
   return rec;
 }
@@ -67,7 +67,8 @@ function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   const node = ctx.w.nodes[ctx.node];
   ctx.scope.bindings.dirty = true;
   ctx.scope.bindings.released.set(name, pairValue(rec, ctx.scope.now));
-  delete node.pairs[rec.qubit];
+  const i = node.pairs.indexOf(rec);
+  if (i >= 0) node.pairs.splice(i, 1);
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
 }
 

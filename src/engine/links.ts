@@ -39,11 +39,12 @@ export function herald(net: Net, w: World, link: string, emitted: number): strin
   const [a, b] = info.def.ends;
   const [qa, qb] = addCluster(w, [{ node: a, link }, { node: b, link }], info.pairRho, emitted);
   const id = linkPairId(link, ++w.counters.pair);
-  for (const [node, qubit, partner] of [[a, qa, b], [b, qb, a]] as const) {
-    const n = w.nodes[node];
-    n.pairs[qubit] = { qubit, id, partner, stage: 'link', born: w.time, order: n.arrivals++, link, notes: {} };
-    w.links[link].used[node]++;
-  }
+  const na = w.nodes[a];
+  na.pairs.push({ qubit: qa, id, partner: b, stage: 'link', born: w.time, order: na.arrivals++, link, notes: {} });
+  w.links[link].used[a]++;
+  const nb = w.nodes[b];
+  nb.pairs.push({ qubit: qb, id, partner: a, stage: 'link', born: w.time, order: nb.arrivals++, link, notes: {} });
+  w.links[link].used[b]++;
   w.links[link].generating = false;
   w.links[link].generated++;
   maybeGenerate(net, w, link, w.time);

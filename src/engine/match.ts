@@ -25,7 +25,7 @@ export interface MatchContext {
 /** Where the search got furthest: the guard that failed and the bindings in force then. */
 export interface DeepestFailure {
   guard: number;
-  bound: { pairs: Map<string, string>; messages: Map<string, Message>; values: Map<string, Value> };
+  bound: { pairs: Map<string, number>; messages: Map<string, Message>; values: Map<string, Value> };
 }
 
 /** Evaluates an expression for a rule, turning expression errors into program errors at the file position. */
@@ -80,13 +80,13 @@ export function truthy(v: Value, expr: Expr, node: string, rule: string): boolea
 }
 
 /** Free halves at the node matching a `have` guard's partner, stage and age window, in pick order. */
-export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<string>, into: PairRecord[] = []): PairRecord[] {
+export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<number>, into: PairRecord[] = []): PairRecord[] {
   const now = ctx.scope.now;
   const out = into;
   out.length = 0;
   const pairs = ctx.w.nodes[ctx.node].pairs;
-  for (const q in pairs) {
-    const rec = pairs[q];
+  for (let k = 0; k < pairs.length; k++) {
+    const rec = pairs[k];
     if (rec.partner !== partner || rec.stage !== g.stage || used.has(rec.qubit)) continue;
     const age = now - rec.born;
     if (g.minAgeNs !== undefined && age < g.minAgeNs) continue;
@@ -101,7 +101,7 @@ const oldestFirst = (a: PairRecord, b: PairRecord): number => a.order - b.order;
 const newestFirst = (a: PairRecord, b: PairRecord): number => b.order - a.order;
 
 /** Messages in the inbox of the given kind (and sender), oldest first. */
-export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: ReadonlySet<string>): Message[] {
+export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: ReadonlySet<number>): Message[] {
   return ctx.w.nodes[ctx.node].inbox.filter(
     (m) => m.kind === kind && (from === undefined || m.from === from) && !used.has(m.id),
   );
@@ -169,8 +169,8 @@ function search(s: Search, i: number): boolean {
       const id = evalIn(g.id, ctx.scope, { node: ctx.node, rule: rule.name });
       const pairs = ctx.w.nodes[ctx.node].pairs;
       let rec: PairRecord | undefined;
-      for (const q in pairs) {
-        const p = pairs[q];
+      for (let k = 0; k < pairs.length; k++) {
+        const p = pairs[k];
         if (p.id === id && (g.stage === undefined || p.stage === g.stage) && !b.usedQubits.has(p.qubit)) {
           rec = p;
           break;

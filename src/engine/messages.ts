@@ -21,7 +21,7 @@ export interface Outgoing {
 
 /** Sends a message at time t; returns what happened to it. Infinity delay means no fiber path. */
 export function send(net: Net, w: World, msg: Outgoing, t: number): SendRecord {
-  const id = `m${++w.counters.message}`;
+  const id = ++w.counters.message;
   w.counters.sent++;
   let delay = net.messageDelay(msg.from, msg.to);
   let dropped: string | undefined;
@@ -57,7 +57,7 @@ function describe(f: { from?: string; to?: string; msgKind?: string }): string {
 }
 
 /** A message reaches its receiver's inbox. */
-export function arrive(w: World, id: string): Message {
+export function arrive(w: World, id: number): Message {
   const m = w.inflight[id];
   delete w.inflight[id];
   w.nodes[m.to].inbox.push(m);

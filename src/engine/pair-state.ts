@@ -4,10 +4,10 @@
  */
 import { bellCoefficients, fidelityPhiPlus, keepQubits, memoryDecay, tensor, type Rho } from '../quantum/index.js';
 import type { Net } from './net.js';
-import type { World } from './types.js';
+import type { PairRecord, World } from './types.js';
 
 /** The cluster's state with every unfrozen qubit decayed up to `t`. */
-function clusterAt(net: Net, w: World, cid: string, t: number): { rho: Rho; qubits: readonly string[] } {
+function clusterAt(net: Net, w: World, cid: number, t: number): { rho: Rho; qubits: readonly number[] } {
   const c = w.clusters[cid];
   let rho = c.rho;
   c.qubits.forEach((qid, i) => {
@@ -20,7 +20,7 @@ function clusterAt(net: Net, w: World, cid: string, t: number): { rho: Rho; qubi
 }
 
 /** The two-qubit state of qubits a and b (a first) at time t; a product state if they share no cluster. */
-export function twoQubitState(net: Net, w: World, a: string, b: string, t: number): Rho {
+export function twoQubitState(net: Net, w: World, a: number, b: number, t: number): Rho {
   const ca = w.qubits[a].cluster;
   const cb = w.qubits[b].cluster;
   if (ca === cb) {
@@ -33,14 +33,21 @@ export function twoQubitState(net: Net, w: World, a: string, b: string, t: numbe
 }
 
 /** Finds the far half of the pair held at `node` as qubit `qid`: the partner's half with the same id. */
-export function farHalf(w: World, node: string, qid: string): string | undefined {
-  const rec = w.nodes[node]?.pairs[qid];
+export function farHalf(w: World, node: string, qid: number): number | undefined {
+  const rec = heldHalf(w.nodes[node]?.pairs, qid);
   if (!rec) return undefined;
   const partner = w.nodes[rec.partner];
   if (!partner) return undefined;
-  for (const other of Object.values(partner.pairs)) {
+  for (const other of partner.pairs) {
     if (other.id === rec.id && other.partner === node) return other.qubit;
   }
+  return undefined;
+}
+
+/** The record of the half held in qubit `qid` among a node's pairs, if it is there. */
+export function heldHalf(pairs: readonly PairRecord[] | undefined, qid: number): PairRecord | undefined {
+  if (pairs === undefined) return undefined;
+  for (let i = 0; i < pairs.length; i++) if (pairs[i].qubit === qid) return pairs[i];
   return undefined;
 }
 
@@ -51,7 +58,7 @@ export interface PairView {
 }
 
 /** True fidelity and Bell coefficients of a held half and its far half at time t, ends in sorted order. */
-export function viewPair(net: Net, w: World, node: string, qid: string, t: number): PairView {
+export function viewPair(net: Net, w: World, node: string, qid: number, t: number): PairView {
   const far = farHalf(w, node, qid);
   if (!far) return {};
   const farNode = w.qubits[far].node;

@@ -51,11 +51,11 @@ function replace(c: Cluster, next: Rho): void {
 }
 
 /** Creates a cluster holding fresh qubits and returns the qubit ids in order. */
-export function addCluster(w: World, qubits: readonly { node: string; link: string }[], rho: Rho, since: number): string[] {
-  const cid = `c${++w.counters.cluster}`;
-  const ids: string[] = [];
+export function addCluster(w: World, qubits: readonly { node: string; link: string }[], rho: Rho, since: number): number[] {
+  const cid = ++w.counters.cluster;
+  const ids: number[] = [];
   for (const q of qubits) {
-    const id = `q${++w.counters.qubit}`;
+    const id = ++w.counters.qubit;
     w.qubits[id] = { id, node: q.node, link: q.link, cluster: cid, decayedTo: since, frozen: false };
     ids.push(id);
   }
@@ -64,14 +64,14 @@ export function addCluster(w: World, qubits: readonly { node: string; link: stri
   return ids;
 }
 
-function clusterOf(w: World, qid: string): Cluster {
+function clusterOf(w: World, qid: number): Cluster {
   const q = w.qubits[qid];
   if (!q) throw new Error(`engine: unknown qubit ${qid}`);
   return w.clusters[q.cluster];
 }
 
 /** Applies memory decay to a qubit from where it was last brought up to date until `t`. */
-export function decayTo(net: Net, w: World, qid: string, t: number): void {
+export function decayTo(net: Net, w: World, qid: number, t: number): void {
   const q = w.qubits[qid];
   if (q.frozen || t <= q.decayedTo) return;
   const mem = net.nodeNoise(q.node).memory;
@@ -86,7 +86,7 @@ export function decayTo(net: Net, w: World, qid: string, t: number): void {
 }
 
 /** Puts two qubits into one cluster (tensor product) and returns it. */
-export function merge(w: World, a: string, b: string, cap: number): Cluster {
+export function merge(w: World, a: number, b: number, cap: number): Cluster {
   const ca = clusterOf(w, a);
   const cb = clusterOf(w, b);
   if (ca.id === cb.id) return ca;
@@ -103,7 +103,7 @@ export function merge(w: World, a: string, b: string, cap: number): Cluster {
 }
 
 /** Applies a gate, then the node's gate depolarizing. */
-export function gate(net: Net, w: World, op: GateName, qids: readonly string[], angle: number | undefined, cap: number): void {
+export function gate(net: Net, w: World, op: GateName, qids: readonly number[], angle: number | undefined, cap: number): void {
   const node = w.qubits[qids[0]].node;
   const noise = net.nodeNoise(node).gates;
   if (qids.length === 2) {
@@ -123,7 +123,7 @@ export function gate(net: Net, w: World, op: GateName, qids: readonly string[], 
 }
 
 /** Destructively measures a qubit with the node's readout flip; the qubit leaves the world. */
-export function measureQubit(net: Net, w: World, qid: string, basis: 'z' | 'x' | 'y', u: number): 0 | 1 {
+export function measureQubit(net: Net, w: World, qid: number, basis: 'z' | 'x' | 'y', u: number): 0 | 1 {
   const q = w.qubits[qid];
   const c = w.clusters[q.cluster];
   const flip = net.nodeNoise(q.node).gates.measure.flip;
@@ -137,7 +137,7 @@ export function measureQubit(net: Net, w: World, qid: string, basis: 'z' | 'x' |
 }
 
 /** Traces a qubit out of its cluster; it leaves the world. */
-export function traceOut(w: World, qid: string): void {
+export function traceOut(w: World, qid: number): void {
   const c = clusterOf(w, qid);
   const keep: number[] = [];
   for (let k = 0; k < c.qubits.length; k++) if (c.qubits[k] !== qid) keep.push(k);
@@ -146,7 +146,7 @@ export function traceOut(w: World, qid: string): void {
   dropQubit(w, c, qid, { n: keep.length, data: out });
 }
 
-function dropQubit(w: World, c: Cluster, qid: string, rest: Rho): void {
+function dropQubit(w: World, c: Cluster, qid: number, rest: Rho): void {
   c.qubits = c.qubits.filter((x) => x !== qid);
   delete w.qubits[qid];
   replace(c, rest);

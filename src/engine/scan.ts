@@ -10,6 +10,7 @@ import { runSteps } from './fire.js';
 import { matchRule, staticNodeOf, type MatchContext } from './match.js';
 import type { Net } from './net.js';
 import { Bindings, RuleScope } from './scope.js';
+import { heldHalf } from './pair-state.js';
 import type { EngineEvent, FireRecord, World } from './types.js';
 
 /** A node that fires more than this many times within one event is in a rule loop (FORMAT.md §1). */
@@ -26,7 +27,7 @@ export function requestWake(w: World, node: string, t: number, why: string): voi
 function describeBound(ctx: MatchContext): Record<string, string> {
   const out: Record<string, string> = {};
   const pairs = ctx.w.nodes[ctx.node].pairs;
-  for (const [name, q] of ctx.scope.bindings.pairs) out[name] = pairs[q]?.id ?? q;
+  for (const [name, q] of ctx.scope.bindings.pairs) out[name] = heldHalf(pairs, q)?.id ?? `q${q}`;
   for (const [name, m] of ctx.scope.bindings.messages) out[name] = `${m.kind} from ${m.from}${m.pair ? ` about ${m.pair}` : ''}`;
   return out;
 }
@@ -91,7 +92,7 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent, deta
 /** Next moment a pair at the node reaches some rule's `min_age` or passes its `max_age`. */
 function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule[]): void {
   if (!net.hasAgeGuards(node)) return;
-  const pairs = Object.values(w.nodes[node].pairs);
+  const pairs = w.nodes[node].pairs;
   if (pairs.length === 0) return;
   let next = Infinity;
   for (const rule of rules) {

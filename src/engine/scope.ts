@@ -7,16 +7,17 @@ import type { ExprFunction, Scope, Value, ValueRecord } from '../expr/types.js';
 import { joinIds } from './ids.js';
 import type { Net } from './net.js';
 import type { Message, PairRecord, World } from './types.js';
+import { heldHalf } from './pair-state.js';
 
 /** Mutable bindings of one rule attempt; the matcher undoes them when it backtracks. */
 export class Bindings {
-  readonly pairs = new Map<string, string>();
+  readonly pairs = new Map<string, number>();
   readonly messages = new Map<string, Message>();
   readonly values = new Map<string, Value>();
-  readonly usedQubits = new Set<string>();
-  readonly usedMessages = new Set<string>();
+  readonly usedQubits = new Set<number>();
+  readonly usedMessages = new Set<number>();
   /** Record views of bound messages, built once per attempt. */
-  readonly messageViews = new Map<string, ValueRecord>();
+  readonly messageViews = new Map<number, ValueRecord>();
   /** The last record of bound pairs that left the node earlier in the body (measured, discarded, delivered). */
   readonly released = new Map<string, ValueRecord>();
   /**
@@ -104,7 +105,7 @@ export class RuleScope implements Scope {
     this.now = w.time;
     this.functions = programFunctions({
       now: () => this.now,
-      pairById: (id) => Object.values(this.w.nodes[this.node].pairs).find((p) => p.id === id),
+      pairById: (id) => this.w.nodes[this.node].pairs.find((p) => p.id === id),
     });
   }
 
@@ -119,7 +120,7 @@ export class RuleScope implements Scope {
     const b = this.bindings;
     const q = b.pairs.get(name);
     if (q !== undefined) {
-      const rec = this.w.nodes[this.node].pairs[q];
+      const rec = heldHalf(this.w.nodes[this.node].pairs, q);
       // a pair freed earlier in the body still reads as its last record
       return rec ? pairValue(rec, this.now) : (b.released.get(name) ?? null);
     }
@@ -142,7 +143,7 @@ export class RuleScope implements Scope {
     const b = this.bindings;
     const q = b.pairs.get(name);
     if (q !== undefined) {
-      const rec = this.w.nodes[this.node].pairs[q];
+      const rec = heldHalf(this.w.nodes[this.node].pairs, q);
       // a released pair (and any field it lacks) takes the general path
       if (rec === undefined) return undefined;
       // noted values shadow the record's own fields, as in pairValue

@@ -33,7 +33,7 @@ export function initialWorld(net: Net, seed: number): World {
     lost: [],
     counters: { qubit: 0, cluster: 0, pair: 0, message: 0, sent: 0, arrived: 0, dropped: 0, faultHits: net.noise.faults.map(() => 0) },
   };
-  for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: {}, inbox: [], arrivals: 0, fired: {} };
+  for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: [], inbox: [], arrivals: 0, fired: {} };
   for (const [id, info] of net.links) {
     w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0 };
   }
@@ -78,7 +78,7 @@ class AppliedEvent implements EngineEvent {
   discards: { node: string; pair: string }[] = NONE as never;
   delivers: { node: string; pair: string }[] = NONE as never;
   pair?: string;
-  message?: string;
+  message?: number;
   /** What the summary's first half is built from (see `summary`). */
   cause: Cause = { link: '', from: '', kind: '', about: null, why: '', fidelity: '' };
   private text: string | undefined;
@@ -166,7 +166,7 @@ export function applyNext(net: Net, w: World, detail = true): EngineEvent | null
 /** Why a world can go no further: `idle` if nothing is held, `stall` if pairs or messages are stuck. */
 export function quiescence(w: World): 'idle' | 'stall' {
   for (const n of Object.values(w.nodes)) {
-    if (n.inbox.length > 0 || Object.keys(n.pairs).length > 0) return 'stall';
+    if (n.inbox.length > 0 || n.pairs.length > 0) return 'stall';
   }
   return 'idle';
 }

@@ -21,8 +21,8 @@ function copyRecord<T>(o: Record<string, T>): Record<string, T> {
 }
 
 function copyNode(n: NodeState): NodeState {
-  const pairs: Record<string, PairRecord> = {};
-  for (const q in n.pairs) pairs[q] = copyPair(n.pairs[q]);
+  const pairs: PairRecord[] = new Array(n.pairs.length);
+  for (let i = 0; i < n.pairs.length; i++) pairs[i] = copyPair(n.pairs[i]);
   return { id: n.id, busyUntil: n.busyUntil, nextWake: n.nextWake, pairs, inbox: n.inbox.slice(), arrivals: n.arrivals, fired: copyRecord(n.fired) };
 }
 
@@ -126,8 +126,27 @@ function shareRecord<T>(base: Record<string, T>, next: Record<string, T>, same: 
 const samePair = (a: PairRecord, b: PairRecord): boolean =>
   a.qubit === b.qubit && a.id === b.id && a.partner === b.partner && a.stage === b.stage && a.born === b.born && a.order === b.order && a.link === b.link && sameEntries(a.notes, b.notes);
 
+/**
+ * A node's pairs with each record replaced by base's record of the same qubit when they are
+ * equal; base itself when nothing changed. Both lists are in arrival order, which is qubit order.
+ */
+function sharePairs(base: readonly PairRecord[], next: PairRecord[]): PairRecord[] {
+  let all = base.length === next.length;
+  let j = 0;
+  for (let i = 0; i < next.length; i++) {
+    const n = next[i];
+    while (j < base.length && base[j].qubit < n.qubit) j++;
+    const b = j < base.length ? base[j] : undefined;
+    if (b === n) continue;
+    if (b !== undefined && b.qubit === n.qubit && samePair(b, n)) next[i] = b;
+    else all = false;
+    if (i !== j) all = false;
+  }
+  return all ? (base as PairRecord[]) : next;
+}
+
 const sameNode = (a: NodeState, b: NodeState): boolean => {
-  b.pairs = shareRecord(a.pairs, b.pairs, samePair);
+  b.pairs = sharePairs(a.pairs, b.pairs);
   if (sameArray(a.inbox, b.inbox)) b.inbox = a.inbox;
   if (sameEntries(a.fired, b.fired)) b.fired = a.fired;
   return a.busyUntil === b.busyUntil && a.nextWake === b.nextWake && a.arrivals === b.arrivals && a.pairs === b.pairs && a.inbox === b.inbox && a.fired === b.fired;

@@ -13,13 +13,13 @@ export type RngState = [number, number, number, number];
 /** Something scheduled to happen; the queue is a binary heap ordered by (time, seq). */
 export type Scheduled =
   | { readonly time: number; readonly seq: number; readonly type: 'herald'; readonly link: string; readonly emitted: number }
-  | { readonly time: number; readonly seq: number; readonly type: 'arrive'; readonly message: string }
+  | { readonly time: number; readonly seq: number; readonly type: 'arrive'; readonly message: number }
   | { readonly time: number; readonly seq: number; readonly type: 'wake'; readonly node: string; readonly why: string };
 
 /** One half of a pair as recorded by the node that holds it. */
 export interface PairRecord {
-  /** The local qubit holding this half. */
-  qubit: string;
+  /** The local qubit holding this half (its number; shown as `q12`). */
+  qubit: number;
   /** Shared pair id, e.g. `mill~quay#12`. */
   id: string;
   partner: string;
@@ -35,11 +35,13 @@ export interface PairRecord {
 }
 
 export interface QubitState {
-  id: string;
+  /** The qubit's number (shown as `q12`); numbers are never reused within a run. */
+  id: number;
   node: string;
   /** The link whose slot this qubit occupies. */
   link: string;
-  cluster: string;
+  /** The number of the cluster holding it. */
+  cluster: number;
   /** Memory decay has been applied up to this time (ns). */
   decayedTo: number;
   /** Delivered halves no longer decay. */
@@ -48,14 +50,16 @@ export interface QubitState {
 
 /** A set of qubits that may be entangled with each other, with their joint state. */
 export interface Cluster {
-  id: string;
-  /** Qubit ids in the order of the density matrix's qubits. */
-  qubits: string[];
+  /** The cluster's number (shown as `c7`). */
+  id: number;
+  /** Qubit numbers in the order of the density matrix's qubits. */
+  qubits: number[];
   rho: Rho;
 }
 
 export interface Message {
-  id: string;
+  /** The message's number (shown as `m5`). */
+  id: number;
   from: string;
   to: string;
   kind: string;
@@ -71,8 +75,8 @@ export interface NodeState {
   busyUntil: number;
   /** The pending wake-up, if any (ns). */
   nextWake: number | null;
-  /** Held halves, keyed by qubit id. */
-  pairs: Record<string, PairRecord>;
+  /** Held halves in arrival order (the oldest first). */
+  pairs: PairRecord[];
   /** Arrived, unconsumed messages, oldest first. */
   inbox: Message[];
   /** Arrivals so far, for the arrival order of halves. */
@@ -102,7 +106,7 @@ export interface DeliveryRecord {
 
 export interface HalfDelivery {
   node: string;
-  qubit: string;
+  qubit: number;
   time: number;
 }
 
@@ -129,9 +133,12 @@ export interface World {
   queue: Scheduled[];
   nodes: Record<string, NodeState>;
   links: Record<string, LinkState>;
-  qubits: Record<string, QubitState>;
-  clusters: Record<string, Cluster>;
-  inflight: Record<string, Message>;
+  /** Qubits in use, by number. */
+  qubits: Record<number, QubitState>;
+  /** Clusters, by number. */
+  clusters: Record<number, Cluster>;
+  /** Messages on their way, by number. */
+  inflight: Record<number, Message>;
   halves: Record<string, HalfDelivery>;
   /** Delivered pairs, newest first, as an immutable list (see delivered.ts). */
   delivered: DeliveredCell | null;
@@ -153,7 +160,7 @@ export interface FireRecord {
 }
 
 export interface SendRecord {
-  id: string;
+  id: number;
   from: string;
   to: string;
   kind: string;
@@ -183,6 +190,6 @@ export interface EngineEvent {
   delivers: { node: string; pair: string }[];
   /** Pair id made by a herald. */
   pair?: string;
-  /** Message id delivered by an arrival. */
-  message?: string;
+  /** Number of the message delivered by an arrival. */
+  message?: number;
 }

@@ -25,7 +25,7 @@ function node(net: Net, name: string, v: Value | undefined, what: string): strin
 }
 
 /** The two halves of a held pair with this id, ends in sorted order, or undefined. */
-export function locatePair(w: World, id: string): [string, string] | undefined {
+export function locatePair(w: World, id: string): [number, number] | undefined {
   for (const n of Object.keys(w.nodes).sort()) {
     for (const rec of Object.values(w.nodes[n].pairs)) {
       if (rec.id !== id || rec.partner < n) continue;

@@ -8,6 +8,9 @@
  */
 import type { EngineEvent, World } from '../engine/index.js';
 
+/** Decimal digits of a number, least significant first (scratch for `tagged`). */
+const DIGITS = new Int32Array(24);
+
 const HEX = Array.from({ length: 256 }, (_, i) => i.toString(16).padStart(2, '0'));
 
 class Hasher {
@@ -43,6 +46,19 @@ class Hasher {
     for (let i = 0; i < s.length; i++) this.int(s.charCodeAt(i));
   }
 
+  /** The same as `str(prefix + n)` for a one-letter prefix and a whole number n ≥ 0, without building the string. */
+  tagged(prefix: string, n: number): void {
+    let k = 0;
+    let x = n;
+    do {
+      DIGITS[k++] = 48 + (x % 10);
+      x = Math.floor(x / 10);
+    } while (x > 0);
+    this.int(k + 1);
+    this.int(prefix.charCodeAt(0));
+    while (k > 0) this.int(DIGITS[--k]);
+  }
+
   floats(data: Float64Array): void {
     const words = new Uint32Array(data.buffer, data.byteOffset, data.length * 2);
     this.int(words.length);
@@ -73,7 +89,7 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
   const c = w.counters;
   for (const x of [c.qubit, c.cluster, c.pair, c.message, c.sent, c.arrived, c.dropped, w.delivered?.count ?? 0, w.queue.length]) h.num(x);
   h.str(ev.summary);
-  const clusters = new Set<string>();
+  const clusters = new Set<number>();
   const links = new Set<string>();
   for (const id of ev.nodes) {
     const n = w.nodes[id];
@@ -81,10 +97,10 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
     h.num(n.busyUntil);
     h.num(n.nextWake ?? -1);
     h.num(n.arrivals);
-    // key order is insertion order, which a deterministic run reproduces exactly
-    for (const q in n.pairs) {
-      const p = n.pairs[q];
-      h.str(q);
+    // arrival order, which a deterministic run reproduces exactly (qubits print as q12)
+    for (const p of n.pairs) {
+      const q = p.qubit;
+      h.tagged('q', q);
       h.str(p.id);
       h.str(p.partner);
       h.str(p.stage);
@@ -102,17 +118,18 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
         clusters.add(qs.cluster);
       }
     }
-    for (const m of n.inbox) h.str(m.id);
+    for (const m of n.inbox) h.tagged('m', m.id);
   }
   for (const s of ev.sends) {
-    h.str(s.id);
+    h.tagged('m', s.id);
     h.num(s.arrives);
   }
-  for (const cid of [...clusters].sort()) {
+  // in the order of their names as text (c10 before c9), as digests have always been taken
+  for (const cid of [...clusters].sort(byName)) {
     const cl = w.clusters[cid];
     if (!cl) continue;
-    h.str(cid);
-    for (const q of cl.qubits) h.str(q);
+    h.tagged('c', cid);
+    for (const q of cl.qubits) h.tagged('q', q);
     h.floats(cl.rho.data);
   }
   for (const lid of [...links].sort()) {
@@ -127,6 +144,12 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
     h.num(d.fidelity);
   }
   return h.hex();
+}
+
+function byName(a: number, b: number): number {
+  const x = String(a);
+  const y = String(b);
+  return x < y ? -1 : x > y ? 1 : 0;
 }
 
 /** The digest before the first event. */

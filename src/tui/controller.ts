@@ -58,7 +58,7 @@ export class Controller implements CommandTarget {
   /** Set while a long continue runs. */
   busy?: string;
   pairSel = 0;
-  readonly bellOpen = new Set<string>();
+  readonly bellOpen = new Set<number>();
   /** The selected event in the events pane; null follows the cursor. */
   eventSel: number | null = null;
   /** Scroll offsets of the text panes (for the timeline: rows back from the cursor). */

@@ -80,7 +80,7 @@ describe('narrate', () => {
   it('tells a message that no rule could use yet, and a wake-up', () => {
     const arrive: EngineEvent = {
       index: 3, time: 1_500_000, type: 'arrive', node: 'fen', nodes: ['fen'], summary: 'fen got ping from vale about #4',
-      fires: [], sends: [], deliveries: [], discards: [], delivers: [], message: 'm2',
+      fires: [], sends: [], deliveries: [], discards: [], delivers: [], message: 2,
     };
     const a = narrate(arrive);
     expectOneSentence(a);

@@ -10,7 +10,7 @@ import { bar, pad, padLeft, wrap } from '../text.js';
 import type { PaneView } from './network.js';
 
 export interface PairRow {
-  readonly qubit: string;
+  readonly qubit: number;
   readonly id: string;
   readonly partner: string;
   readonly stage: string;
@@ -45,7 +45,7 @@ function fidelitySegs(r: PairRow, cells: number): Seg[] {
 }
 
 /** The pairs pane's lines: `selected` is the index of the selected pair, `bellOpen` the qubits showing Bell coefficients. */
-export function pairsView(rows: readonly PairRow[], selected: number, bellOpen: ReadonlySet<string>, cols: number, focused: boolean): PaneView {
+export function pairsView(rows: readonly PairRow[], selected: number, bellOpen: ReadonlySet<number>, cols: number, focused: boolean): PaneView {
   if (rows.length === 0) return { lines: [[{ text: 'holds no pairs right now', tone: 'dim' }]], note: '0' };
   const lines: Line[] = [];
   let anchor = 0;

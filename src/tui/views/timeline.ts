@@ -107,8 +107,8 @@ export function timelineView(inp: TimelineInput, cols: number, rows: number): Li
   const start = Math.max(0, end - (rows - 2));
 
   // messages that cross the window: sent in it or shortly before, plus those still in flight
-  const flights = new Map<string, Flight>();
-  const arrivedAt = new Map<string, number>();
+  const flights = new Map<number, Flight>();
+  const arrivedAt = new Map<number, number>();
   const take = (ev: EngineEvent, i: number) => {
     for (const s of ev.sends) if (!s.dropped) flights.set(s.id, { from: s.from, to: s.to, sent: s.sent, arrives: s.arrives, sentAt: i });
   };

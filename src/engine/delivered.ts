@@ -1,27 +1,140 @@
 /**
- * Delivery records, kept as an immutable list that grows at the head: appending never
- * copies earlier records, so worlds in the history share them all, and the count and the
- * lowest fidelity so far are read in constant time.
+ * Delivery records, kept compactly: column by column in one append-only log that every world
+ * of a run shares. A world sees the log through a small frozen view (`count` records), so
+ * appending never copies earlier records and a world's records never change. Each record
+ * costs its id plus about 60 bytes, which keeps a run of millions of events flat in memory.
  */
 import type { DeliveryRecord, World } from './types.js';
 
-/** A cell of the delivery list: the newest record and everything before it. */
-export interface DeliveredCell {
-  readonly record: DeliveryRecord;
-  readonly prev: DeliveredCell | null;
-  readonly count: number;
-  readonly minFidelity: number;
+/** Numbers stored per record: time, fidelity and the four Bell coefficients. */
+const NUMS = 6;
+
+/**
+ * The shared log. Records are only ever appended; a world that is behind the log's head and
+ * delivers a different record than the one stored next (a world edited by hand, or a run
+ * from another start) gets a log of its own, so no world's records change under it.
+ */
+export class DeliveryLog {
+  /** Records stored. */
+  length = 0;
+  private ids: string[] = [];
+  private ends: string[] = [];
+  private nums = new Float64Array(NUMS * 64);
+  /** Indices of the records with each pair of ends ("a b", sorted) and with each end. */
+  private readonly byEnds = new Map<string, number[]>();
+  private readonly byNode = new Map<string, number[]>();
+
+  /** Record k (k < length). */
+  get(k: number): DeliveryRecord {
+    const o = NUMS * k;
+    const n = this.nums;
+    return { id: this.ids[k], ends: [this.ends[2 * k], this.ends[2 * k + 1]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]] };
+  }
+
+  /** The id of record k. */
+  idAt(k: number): string {
+    return this.ids[k];
+  }
+
+  /** Whether record k equals `r`, bit for bit. */
+  matches(k: number, r: DeliveryRecord): boolean {
+    const o = NUMS * k;
+    const n = this.nums;
+    return (
+      this.ids[k] === r.id && this.ends[2 * k] === r.ends[0] && this.ends[2 * k + 1] === r.ends[1] &&
+      Object.is(n[o], r.time_ns) && Object.is(n[o + 1], r.fidelity) && Object.is(n[o + 2], r.bell[0]) &&
+      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3])
+    );
+  }
+
+  /** Appends a record. */
+  push(r: DeliveryRecord): void {
+    const k = this.length++;
+    if (NUMS * this.length > this.nums.length) {
+      const grown = new Float64Array(this.nums.length * 2);
+      grown.set(this.nums);
+      this.nums = grown;
+    }
+    const o = NUMS * k;
+    const n = this.nums;
+    n[o] = r.time_ns;
+    n[o + 1] = r.fidelity;
+    n[o + 2] = r.bell[0];
+    n[o + 3] = r.bell[1];
+    n[o + 4] = r.bell[2];
+    n[o + 5] = r.bell[3];
+    this.ids.push(r.id);
+    this.ends.push(r.ends[0], r.ends[1]);
+    indexAt(this.byEnds, `${r.ends[0]} ${r.ends[1]}`, k);
+    indexAt(this.byNode, r.ends[0], k);
+    if (r.ends[1] !== r.ends[0]) indexAt(this.byNode, r.ends[1], k);
+  }
+
+  /** A log holding this one's first `count` records. */
+  prefix(count: number): DeliveryLog {
+    const out = new DeliveryLog();
+    for (let k = 0; k < count; k++) out.push(this.get(k));
+    return out;
+  }
+
+  /** Among the first `count` records, how many have both ends a and b (a ≤ b, or a = b for one end). */
+  countWith(count: number, a: string, b?: string): number {
+    const list = b === undefined || a === b ? this.byNode.get(a) : this.byEnds.get(a < b ? `${a} ${b}` : `${b} ${a}`);
+    return list === undefined ? 0 : below(list, count);
+  }
+}
+
+function indexAt(m: Map<string, number[]>, key: string, k: number): void {
+  const list = m.get(key);
+  if (list === undefined) m.set(key, [k]);
+  else list.push(k);
+}
+
+/** How many entries of an ascending list are below n. */
+function below(list: readonly number[], n: number): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (list[mid] < n) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
+ * What a world sees of the delivery log: its first `count` records. The log itself is not
+ * an enumerable field, so comparing and serialising worlds looks at what they hold (the
+ * records, through `toJSON`), not at how far the shared log has grown since.
+ */
+export class DeliveredView {
+  declare readonly log: DeliveryLog;
+
+  constructor(
+    log: DeliveryLog,
+    readonly count: number,
+    /** The lowest fidelity among them (1 when there are none). */
+    readonly minFidelity: number,
+  ) {
+    Object.defineProperty(this, 'log', { value: log, enumerable: false });
+  }
+
+  toJSON(): { count: number; minFidelity: number; records: DeliveryRecord[] } {
+    const records: DeliveryRecord[] = [];
+    for (let k = 0; k < this.count; k++) records.push(this.log.get(k));
+    return { count: this.count, minFidelity: this.minFidelity, records };
+  }
 }
 
 /** Appends a delivery to a (draft) world. */
 export function addDelivery(w: World, record: DeliveryRecord): void {
-  const prev = w.delivered;
-  w.delivered = {
-    record,
-    prev,
-    count: (prev?.count ?? 0) + 1,
-    minFidelity: Math.min(prev?.minFidelity ?? 1, record.fidelity),
-  };
+  const v = w.delivered;
+  const count = v?.count ?? 0;
+  let log = v?.log ?? new DeliveryLog();
+  // a deterministic run that is behind the log's head delivers exactly the record stored next
+  if (log.length > count && !log.matches(count, record)) log = log.prefix(count);
+  if (log.length === count) log.push(record);
+  w.delivered = new DeliveredView(log, count + 1, Math.min(v?.minFidelity ?? 1, record.fidelity));
 }
 
 /** Number of pairs delivered so far. */
@@ -29,15 +142,39 @@ export function deliveredCount(w: World): number {
   return w.delivered?.count ?? 0;
 }
 
+/** Pairs delivered so far with ends a and b (either may be left out). */
+export function deliveredWith(w: World, a?: string, b?: string): number {
+  const v = w.delivered;
+  if (!v) return 0;
+  if (a === undefined) return b === undefined ? v.count : v.log.countWith(v.count, b);
+  return v.log.countWith(v.count, a, b);
+}
+
 /** Every delivery record, oldest first. */
 export function deliveries(w: World): DeliveryRecord[] {
   const out: DeliveryRecord[] = [];
-  for (let c = w.delivered; c; c = c.prev) out.push(c.record);
-  return out.reverse();
+  for (const r of eachDelivery(w)) out.push(r);
+  return out;
+}
+
+/** Delivery records oldest first, built one at a time (for output that streams). */
+export function* eachDelivery(w: World): Generator<DeliveryRecord> {
+  const v = w.delivered;
+  if (!v) return;
+  for (let k = 0; k < v.count; k++) yield v.log.get(k);
 }
 
 /** The newest delivery records first, visiting at most `limit`. */
 export function* recentDeliveries(w: World, limit = Infinity): Generator<DeliveryRecord> {
-  let n = 0;
-  for (let c = w.delivered; c && n < limit; c = c.prev, n++) yield c.record;
+  const v = w.delivered;
+  if (!v) return;
+  for (let k = v.count - 1, n = 0; k >= 0 && n < limit; k--, n++) yield v.log.get(k);
+}
+
+/** The newest delivery record with this pair id, if any. */
+export function findDelivery(w: World, id: string): DeliveryRecord | undefined {
+  const v = w.delivered;
+  if (!v) return undefined;
+  for (let k = v.count - 1; k >= 0; k--) if (v.log.idAt(k) === id) return v.log.get(k);
+  return undefined;
 }

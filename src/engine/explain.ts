@@ -146,7 +146,7 @@ function reasonFor(ctx: MatchContext, rule: Rule, i: number): string {
       return text;
     }
     case 'have-id': {
-      const id = evalIn(g.id, ctx.scope, where);
+      const id = evalIn(g.id, ctx.scope, where.node, where.rule);
       const same = pairs.filter((p) => p.id === id);
       const stage = g.stage ? ` in stage "${g.stage}"` : '';
       if (same.length && g.stage) return `waits for pair ${formatValue(id)}${stage}; it is held in stage "${same[0].stage}"`;

@@ -16,8 +16,8 @@ import { heldHalf, twoQubitState } from './pair-state.js';
 import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
-import { pairValue } from './scope.js';
 import { addDelivery } from './delivered.js';
+import { trace, traced } from './physics-trace.js';
 
 interface BodyContext extends MatchContext {
   readonly net: Net;
@@ -52,33 +52,31 @@ function held(ctx: BodyContext, name: string, step: Step): PairRecord {
 
 function bit(ctx: BodyContext, e: Expr | undefined, step: Step): 0 | 1 {
   if (!e) return 0;
-  const v = evalIn(e, ctx.scope, { node: ctx.node, rule: ctx.rule.name });
+  const v = evalIn(e, ctx.scope, ctx.node, ctx.rule.name);
   if (v === 1 || v === true) return 1;
   if (v === 0 || v === false) return 0;
   return fail(ctx, step, `"${e.compiled.source}" gave ${JSON.stringify(v)}, not a bit (0 or 1)`);
 }
 
 function value(ctx: BodyContext, e: Expr): Value {
-  return evalIn(e, ctx.scope, { node: ctx.node, rule: ctx.rule.name });
+  return evalIn(e, ctx.scope, ctx.node, ctx.rule.name);
 }
 
 /** A half leaves this node's memory; remember its last record so later steps can still read it. */
 function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   const node = ctx.w.nodes[ctx.node];
   ctx.scope.bindings.dirty = true;
-  ctx.scope.bindings.released.set(name, pairValue(rec, ctx.scope.now));
+  ctx.scope.bindings.released.set(name, rec);
+  ctx.scope.bindings.releasedAt.set(name, ctx.scope.now);
   const i = node.pairs.indexOf(rec);
   if (i >= 0) node.pairs.splice(i, 1);
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
 }
 
-function withCap<T>(ctx: BodyContext, step: Step, f: () => T): T {
-  try {
-    return f();
-  } catch (e) {
-    if (e instanceof ClusterTooLargeError) fail(ctx, step, e.message, 'measure or discard halves before entangling more');
-    throw e;
-  }
+/** Rethrows an error of a gate step: a cluster over the cap is the program's mistake. */
+function tooLarge(ctx: BodyContext, step: Step, e: unknown): never {
+  if (e instanceof ClusterTooLargeError) fail(ctx, step, e.message, 'measure or discard halves before entangling more');
+  throw e;
 }
 
 function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
@@ -97,6 +95,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   delete w.halves[rec.id];
   const [a, b] = ctx.node <= other.node ? [rec.qubit, other.qubit] : [other.qubit, rec.qubit];
   const rho = twoQubitState(ctx.net, w, a, b, t);
+  if (trace) traced.bell(trace, rho.data);
   const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
   const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
   addDelivery(w, record);
@@ -114,13 +113,19 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
   for (const step of steps) {
     switch (step.kind) {
       case 'gate': {
-        const recs = step.on.map((n) => held(ctx, n, step));
-        for (const r of recs) decayTo(ctx.net, w, r.qubit, scope.now);
+        const r1 = held(ctx, step.on[0], step);
+        const r2 = step.on.length === 2 ? held(ctx, step.on[1], step) : undefined;
+        decayTo(ctx.net, w, r1.qubit, scope.now);
+        if (r2) decayTo(ctx.net, w, r2.qubit, scope.now);
         const angle = step.angle ? value(ctx, step.angle) : undefined;
         if (angle !== undefined && typeof angle !== 'number') fail(ctx, step, `angle "${step.angle!.compiled.source}" is not a number`);
-        withCap(ctx, step, () => gate(ctx.net, w, step.op, recs.map((r) => r.qubit), angle as number | undefined, MAX_CLUSTER_QUBITS));
-        scope.now += recs.length === 2 ? noise.two.durationNs : noise.single.durationNs;
-        if (ctx.detail) ctx.fire.actions.push(`${step.op} ${recs.map((r) => shortPairId(r.id)).join('→')}`);
+        try {
+          gate(ctx.net, w, step.op, r1.qubit, r2 ? r2.qubit : -1, angle as number | undefined, MAX_CLUSTER_QUBITS);
+        } catch (e) {
+          tooLarge(ctx, step, e);
+        }
+        scope.now += r2 ? noise.two.durationNs : noise.single.durationNs;
+        if (ctx.detail) ctx.fire.actions.push(`${step.op} ${r2 ? `${shortPairId(r1.id)}→${shortPairId(r2.id)}` : shortPairId(r1.id)}`);
         break;
       }
       case 'measure': {
@@ -137,13 +142,16 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         break;
       }
       case 'bell_measure': {
-        const [r1, r2] = step.on.map((n) => held(ctx, n, step));
+        const r1 = held(ctx, step.on[0], step);
+        const r2 = held(ctx, step.on[1], step);
         decayTo(ctx.net, w, r1.qubit, scope.now);
         decayTo(ctx.net, w, r2.qubit, scope.now);
-        withCap(ctx, step, () => {
-          gate(ctx.net, w, 'cnot', [r1.qubit, r2.qubit], undefined, MAX_CLUSTER_QUBITS);
-          gate(ctx.net, w, 'h', [r1.qubit], undefined, MAX_CLUSTER_QUBITS);
-        });
+        try {
+          gate(ctx.net, w, 'cnot', r1.qubit, r2.qubit, undefined, MAX_CLUSTER_QUBITS);
+          gate(ctx.net, w, 'h', r1.qubit, -1, undefined, MAX_CLUSTER_QUBITS);
+        } catch (e) {
+          tooLarge(ctx, step, e);
+        }
         const zb = measureQubit(ctx.net, w, r1.qubit, 'z', draw(w));
         const xb = measureQubit(ctx.net, w, r2.qubit, 'z', draw(w));
         release(ctx, step.on[0], r1);
@@ -160,7 +168,7 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         const pair = step.pair ? value(ctx, step.pair) : null;
         if (pair !== null && typeof pair !== 'string') fail(ctx, step, `pair "${step.pair!.compiled.source}" is not a pair id`);
         const data: Record<string, Value> = {};
-        for (const [k, e] of Object.entries(step.data)) data[k] = value(ctx, e);
+        for (const k in step.data) data[k] = value(ctx, step.data[k]);
         if (!Number.isFinite(ctx.net.distance(ctx.node, to))) {
           fail(ctx, step, `no fiber path from ${ctx.node} to ${to}`, 'send only to nodes connected through links');
         }
@@ -177,7 +185,13 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
       }
       case 'note': {
         const rec = held(ctx, step.pair, step);
-        for (const [k, e] of Object.entries(step.set)) rec.notes[k] = value(ctx, e);
+        // notes are shared until first written (a fresh pair's are one frozen empty record)
+        if (Object.isFrozen(rec.notes)) {
+          const own: Record<string, Value> = {};
+          for (const k in rec.notes) own[k] = rec.notes[k];
+          rec.notes = own;
+        }
+        for (const k in step.set) rec.notes[k] = value(ctx, step.set[k]);
         break;
       }
       case 'correct': {
@@ -186,11 +200,11 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         const z = bit(ctx, step.z, step);
         decayTo(ctx.net, w, rec.qubit, scope.now);
         if (x) {
-          gate(ctx.net, w, 'x', [rec.qubit], undefined, MAX_CLUSTER_QUBITS);
+          gate(ctx.net, w, 'x', rec.qubit, -1, undefined, MAX_CLUSTER_QUBITS);
           scope.now += noise.single.durationNs;
         }
         if (z) {
-          gate(ctx.net, w, 'z', [rec.qubit], undefined, MAX_CLUSTER_QUBITS);
+          gate(ctx.net, w, 'z', rec.qubit, -1, undefined, MAX_CLUSTER_QUBITS);
           scope.now += noise.single.durationNs;
         }
         if (ctx.detail) ctx.fire.actions.push(`corrected ${shortPairId(rec.id)}${x || z ? ` (${x ? 'X' : ''}${z ? 'Z' : ''})` : ' (none)'}`);

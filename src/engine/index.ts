@@ -2,6 +2,7 @@
 export { Engine, applyNext, hasNext, initialWorld, peekNextTime, quiescence, type AdvanceHooks, type AdvanceOptions, type AdvanceResult } from './step.js';
 export { Net, derivedSuccess, type LinkInfo } from './net.js';
 export { ProgramError } from './errors.js';
+export { PhysicsTrace, recordPhysics, replayPhysics } from './physics-trace.js';
 export { joinIds, linkPairId, parsePairId, shortPairId } from './ids.js';
 export { explainNode, explainRule, guardText, stallReport, type GuardStatus, type RuleExplanation, type StallEntry } from './explain.js';
 export { farHalf, twoQubitState, viewPair, type PairView } from './pair-state.js';
@@ -9,4 +10,4 @@ export { joinFunction, programFunctions, pairValue, messageValue } from './scope
 export { RULE_LOOP_LIMIT } from './scan.js';
 export { seedRng, drawUniform, geometricAttempts, mixSeed, SEED_WARMUP } from './rng.js';
 export type * from './types.js';
-export { addDelivery, deliveredCount, deliveries, recentDeliveries, type DeliveredCell } from './delivered.js';
+export { addDelivery, deliveredCount, deliveredWith, deliveries, eachDelivery, findDelivery, recentDeliveries, DeliveryLog, type DeliveredView } from './delivered.js';

@@ -9,6 +9,7 @@ import { heapPush } from './heap.js';
 import { drawInPlace, geometricAttempts } from './rng.js';
 import type { Net } from './net.js';
 import type { World } from './types.js';
+import type { Value } from '../expr/types.js';
 
 /** Draws one uniform number from the world's generator. */
 export function draw(w: World): number {
@@ -33,6 +34,9 @@ export function maybeGenerate(net: Net, w: World, link: string, t: number): void
   heapPush(w.queue, { time: emitted + info.heraldNs, seq: w.seq++, type: 'herald', link, emitted });
 }
 
+/** The notes of a fresh pair: none, shared until a `note` step writes its own (fire.ts). */
+const NO_NOTES: Record<string, Value> = Object.freeze({}) as Record<string, Value>;
+
 /** The herald has reached both ends: the pair exists at both. Returns the new pair id. */
 export function herald(net: Net, w: World, link: string, emitted: number): string {
   const info = net.links.get(link)!;
@@ -40,10 +44,10 @@ export function herald(net: Net, w: World, link: string, emitted: number): strin
   const [qa, qb] = addCluster(w, [{ node: a, link }, { node: b, link }], info.pairRho, emitted);
   const id = linkPairId(link, ++w.counters.pair);
   const na = w.nodes[a];
-  na.pairs.push({ qubit: qa, id, partner: b, stage: 'link', born: w.time, order: na.arrivals++, link, notes: {} });
+  na.pairs.push({ qubit: qa, id, partner: b, stage: 'link', born: w.time, order: na.arrivals++, link, notes: NO_NOTES });
   w.links[link].used[a]++;
   const nb = w.nodes[b];
-  nb.pairs.push({ qubit: qb, id, partner: a, stage: 'link', born: w.time, order: nb.arrivals++, link, notes: {} });
+  nb.pairs.push({ qubit: qb, id, partner: a, stage: 'link', born: w.time, order: nb.arrivals++, link, notes: NO_NOTES });
   w.links[link].used[b]++;
   w.links[link].generating = false;
   w.links[link].generated++;

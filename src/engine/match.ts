@@ -29,13 +29,13 @@ export interface DeepestFailure {
 }
 
 /** Evaluates an expression for a rule, turning expression errors into program errors at the file position. */
-export function evalIn(expr: Expr, scope: RuleScope, where: { node: string; rule: string }): Value {
+export function evalIn(expr: Expr, scope: RuleScope, node: string, rule: string): Value {
   try {
     return evaluate(expr.compiled, scope);
   } catch (e) {
     if (e instanceof ExprError) {
       const pos = offsetPos(expr.pos, expr.compiled.source, e.offset);
-      throw new ProgramError(`${e.detail} in "${expr.compiled.source}"`, { pos, ...where });
+      throw new ProgramError(`${e.detail} in "${expr.compiled.source}"`, { pos, node, rule });
     }
     throw e;
   }
@@ -58,7 +58,7 @@ export function staticNodeOf(expr: Expr, nodeIds: ReadonlySet<string>): string |
 export function evalNode(expr: Expr, ctx: MatchContext, rule: string): string {
   const fixed = staticNodeOf(expr, ctx.nodeIds);
   if (fixed !== null) return fixed;
-  const v = evalIn(expr, ctx.scope, { node: ctx.node, rule });
+  const v = evalIn(expr, ctx.scope, ctx.node, rule);
   if (typeof v === 'string' && ctx.nodeIds.has(v)) return v;
   throw new ProgramError(`"${expr.compiled.source}" gave ${JSON.stringify(v)}, which is not a node id`, {
     pos: expr.pos,
@@ -166,7 +166,7 @@ function search(s: Search, i: number): boolean {
       return fail(s, i);
     }
     case 'have-id': {
-      const id = evalIn(g.id, ctx.scope, { node: ctx.node, rule: rule.name });
+      const id = evalIn(g.id, ctx.scope, ctx.node, rule.name);
       const pairs = ctx.w.nodes[ctx.node].pairs;
       let rec: PairRecord | undefined;
       for (let k = 0; k < pairs.length; k++) {
@@ -198,7 +198,7 @@ function search(s: Search, i: number): boolean {
       return fail(s, i);
     }
     case 'check': {
-      if (truthy(evalIn(g.expr, ctx.scope, { node: ctx.node, rule: rule.name }), g.expr, ctx.node, rule.name) && search(s, i + 1)) return true;
+      if (truthy(evalIn(g.expr, ctx.scope, ctx.node, rule.name), g.expr, ctx.node, rule.name) && search(s, i + 1)) return true;
       return fail(s, i);
     }
   }

@@ -115,6 +115,18 @@ export class Net {
     return v;
   }
 
+  private readonly singles = new Map<string, readonly string[]>();
+
+  /** A frozen one-element list of a node, shared, for events that touch one node. */
+  nodeList(node: string): readonly string[] {
+    let l = this.singles.get(node);
+    if (l === undefined) {
+      l = Object.freeze([node]);
+      this.singles.set(node, l);
+    }
+    return l;
+  }
+
   nodeNoise(node: string): NodeNoise {
     let n = this.nodeNoiseCache.get(node);
     if (!n) {

@@ -9,7 +9,7 @@
  */
 import { isDraft } from 'immer';
 import {
-  applyGateInPlace,
+  gateKernel,
   BufferPool,
   checkDecay,
   ClusterTooLargeError,
@@ -23,6 +23,7 @@ import {
   type Rho,
 } from '../quantum/index.js';
 import type { Net } from './net.js';
+import { trace, traced } from './physics-trace.js';
 import type { Cluster, World } from './types.js';
 
 const pool = new BufferPool();
@@ -38,16 +39,27 @@ function writable(c: Cluster): Rho {
   if (owned(rho)) return rho;
   const data = pool.take(rho.n);
   data.set(rho.data);
+  if (trace) traced.copy(trace, data, rho.data, rho.n);
   const mine: Rho = { n: rho.n, data };
   c.rho = mine;
   return mine;
 }
 
-/** Replaces a cluster's state, recycling the old buffer when nothing else can see it. */
-function replace(c: Cluster, next: Rho): void {
+/** Replaces a cluster's state by an n-qubit `data`, recycling the old buffer when nothing else can see it. */
+function replace(c: Cluster, n: number, data: Float64Array): void {
   const old = c.rho;
-  c.rho = next;
-  if (owned(old)) pool.give(old.data);
+  if (owned(old)) {
+    give(old.data);
+    // the wrapper is this working copy's own too: update it rather than make another
+    const mine = old as { n: number; data: Float64Array };
+    mine.n = n;
+    mine.data = data;
+  } else c.rho = { n, data };
+}
+
+function give(buf: Float64Array): void {
+  if (trace) traced.free(trace, buf);
+  pool.give(buf);
 }
 
 /** Creates a cluster holding fresh qubits and returns the qubit ids in order. */
@@ -80,7 +92,9 @@ export function decayTo(net: Net, w: World, qid: number, t: number): void {
     checkDecay(dt, mem.t1Ns, mem.t2Ns);
     const c = w.clusters[q.cluster];
     const rho = writable(c);
-    memoryDecayInPlace(rho.data, rho.n, c.qubits.indexOf(qid), dt, mem.t1Ns, mem.t2Ns);
+    const i = c.qubits.indexOf(qid);
+    if (trace) traced.decay(trace, rho.data, rho.n, i, dt, mem.t1Ns, mem.t2Ns);
+    memoryDecayInPlace(rho.data, rho.n, i, dt, mem.t1Ns, mem.t2Ns);
   }
   q.decayedTo = t;
 }
@@ -93,32 +107,50 @@ export function merge(w: World, a: number, b: number, cap: number): Cluster {
   const n = ca.rho.n + cb.rho.n;
   if (n > cap) throw new ClusterTooLargeError(n, cap);
   const out = pool.take(n);
+  if (trace) traced.tensor(trace, out, ca.rho.data, ca.rho.n, cb.rho.data, cb.rho.n);
   tensorInto(ca.rho, cb.rho, out);
-  replace(ca, { n, data: out });
-  if (owned(cb.rho)) pool.give(cb.rho.data);
+  replace(ca, n, out);
+  if (owned(cb.rho)) give(cb.rho.data);
   for (const q of cb.qubits) w.qubits[q].cluster = ca.id;
-  ca.qubits = [...ca.qubits, ...cb.qubits];
+  // a list made since the last finished world is this copy's own (see `owned`)
+  if (Object.isFrozen(ca.qubits) || isDraft(ca.qubits)) ca.qubits = [...ca.qubits, ...cb.qubits];
+  else for (const q of cb.qubits) ca.qubits.push(q);
   delete w.clusters[cb.id];
   return ca;
 }
 
-/** Applies a gate, then the node's gate depolarizing. */
-export function gate(net: Net, w: World, op: GateName, qids: readonly number[], angle: number | undefined, cap: number): void {
-  const node = w.qubits[qids[0]].node;
+/**
+ * Applies a gate to qubit a (and b, for a two-qubit gate; -1 otherwise), then the node's gate
+ * depolarizing. The model has checked the gate's name and arity; the angle is checked here.
+ */
+export function gate(net: Net, w: World, op: GateName, a: number, b: number, angle: number | undefined, cap: number): void {
+  const node = w.qubits[a].node;
   const noise = net.nodeNoise(node).gates;
-  if (qids.length === 2) {
-    const c = merge(w, qids[0], qids[1], cap);
-    const i = c.qubits.indexOf(qids[0]);
-    const j = c.qubits.indexOf(qids[1]);
+  if (b >= 0) {
+    const c = merge(w, a, b, cap);
+    const i = c.qubits.indexOf(a);
+    const j = c.qubits.indexOf(b);
     const rho = writable(c);
-    applyGateInPlace(rho.data, rho.n, op, [i, j]);
-    if (noise.two.depolarizing > 0) depolarize2InPlace(rho.data, rho.n, i, j, noise.two.depolarizing);
+    if (i === j) throw new Error(`qubit indices must be distinct, got [${i}, ${j}]`);
+    if (trace) traced.gate(trace, rho.data, rho.n, op, i, j, 0);
+    gateKernel(rho.data, rho.n, op, i, j, 0);
+    if (noise.two.depolarizing > 0) {
+      if (trace) traced.dep2(trace, rho.data, rho.n, i, j, noise.two.depolarizing);
+      depolarize2InPlace(rho.data, rho.n, i, j, noise.two.depolarizing);
+    }
   } else {
-    const c = clusterOf(w, qids[0]);
-    const i = c.qubits.indexOf(qids[0]);
+    const c = clusterOf(w, a);
+    const i = c.qubits.indexOf(a);
     const rho = writable(c);
-    applyGateInPlace(rho.data, rho.n, op, [i], angle);
-    if (noise.single.depolarizing > 0) depolarize1InPlace(rho.data, rho.n, i, noise.single.depolarizing);
+    if ((op === 'rx' || op === 'ry' || op === 'rz') && (angle === undefined || !Number.isFinite(angle))) {
+      throw new Error(`gate ${op} needs a finite angle in radians, got ${String(angle)}`);
+    }
+    if (trace) traced.gate(trace, rho.data, rho.n, op, i, -1, angle ?? 0);
+    gateKernel(rho.data, rho.n, op, i, -1, angle ?? 0);
+    if (noise.single.depolarizing > 0) {
+      if (trace) traced.dep1(trace, rho.data, rho.n, i, noise.single.depolarizing);
+      depolarize1InPlace(rho.data, rho.n, i, noise.single.depolarizing);
+    }
   }
 }
 
@@ -131,8 +163,10 @@ export function measureQubit(net: Net, w: World, qid: number, basis: 'z' | 'x' |
   // the measurement rotates the state before reading it, so it needs a private copy
   const rho = writable(c);
   const out = pool.take(rho.n - 1);
-  const r = measureInto(rho.data, rho.n, c.qubits.indexOf(qid), basis, u, flip, out);
-  dropQubit(w, c, qid, { n: rho.n - 1, data: out });
+  const i = c.qubits.indexOf(qid);
+  if (trace) traced.measure(trace, rho.data, rho.n, i, basis, u, flip, out);
+  const r = measureInto(rho.data, rho.n, i, basis, u, flip, out);
+  dropQubit(w, c, qid, rho.n - 1, out);
   return r.bit;
 }
 
@@ -142,16 +176,18 @@ export function traceOut(w: World, qid: number): void {
   const keep: number[] = [];
   for (let k = 0; k < c.qubits.length; k++) if (c.qubits[k] !== qid) keep.push(k);
   const out = pool.take(keep.length);
+  if (trace) traced.keep(trace, c.rho.data, c.rho.n, keep, out);
   keepQubitsInto(c.rho, keep, out);
-  dropQubit(w, c, qid, { n: keep.length, data: out });
+  dropQubit(w, c, qid, keep.length, out);
 }
 
-function dropQubit(w: World, c: Cluster, qid: number, rest: Rho): void {
-  c.qubits = c.qubits.filter((x) => x !== qid);
+function dropQubit(w: World, c: Cluster, qid: number, n: number, rest: Float64Array): void {
+  if (Object.isFrozen(c.qubits) || isDraft(c.qubits)) c.qubits = c.qubits.filter((x) => x !== qid);
+  else c.qubits.splice(c.qubits.indexOf(qid), 1);
   delete w.qubits[qid];
-  replace(c, rest);
+  replace(c, n, rest);
   if (c.qubits.length === 0) {
     delete w.clusters[c.id];
-    pool.give(rest.data);
+    give(rest);
   }
 }

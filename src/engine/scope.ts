@@ -19,7 +19,9 @@ export class Bindings {
   /** Record views of bound messages, built once per attempt. */
   readonly messageViews = new Map<number, ValueRecord>();
   /** The last record of bound pairs that left the node earlier in the body (measured, discarded, delivered). */
-  readonly released = new Map<string, ValueRecord>();
+  readonly released = new Map<string, PairRecord>();
+  /** When each of them left (their age is read at that moment). */
+  readonly releasedAt = new Map<string, number>();
   /**
    * Set by whoever adds to the maps above, so that clearing an unused set of bindings (most
    * rule attempts fail at their first guard) costs one test.
@@ -35,7 +37,10 @@ export class Bindings {
     if (this.usedQubits.size) this.usedQubits.clear();
     if (this.usedMessages.size) this.usedMessages.clear();
     if (this.messageViews.size) this.messageViews.clear();
-    if (this.released.size) this.released.clear();
+    if (this.released.size) {
+      this.released.clear();
+      this.releasedAt.clear();
+    }
   }
 }
 
@@ -122,7 +127,9 @@ export class RuleScope implements Scope {
     if (q !== undefined) {
       const rec = heldHalf(this.w.nodes[this.node].pairs, q);
       // a pair freed earlier in the body still reads as its last record
-      return rec ? pairValue(rec, this.now) : (b.released.get(name) ?? null);
+      if (rec) return pairValue(rec, this.now);
+      const gone = b.released.get(name);
+      return gone ? pairValue(gone, b.releasedAt.get(name)!) : null;
     }
     const m = b.messages.get(name);
     if (m !== undefined) {

@@ -13,7 +13,7 @@ import { seedRng } from './rng.js';
 import { scanNode } from './scan.js';
 import { shortPairId } from './ids.js';
 import { settle, thaw, thawNode } from './thaw.js';
-import type { DeliveryRecord, EngineEvent, FireRecord, Scheduled, SendRecord, World } from './types.js';
+import type { DeliveryRecord, EngineEvent, FireRecord, Message, Scheduled, SendRecord, World } from './types.js';
 
 /** The world before any event: empty memories, every link attempting. */
 export function initialWorld(net: Net, seed: number): World {
@@ -77,39 +77,48 @@ class AppliedEvent implements EngineEvent {
   deliveries: DeliveryRecord[] = NONE as never;
   discards: { node: string; pair: string }[] = NONE as never;
   delivers: { node: string; pair: string }[] = NONE as never;
-  pair?: string;
-  message?: number;
-  /** What the summary's first half is built from (see `summary`). */
-  cause: Cause = { link: '', from: '', kind: '', about: null, why: '', fidelity: '' };
-  private text: string | undefined;
+  pair?: string = undefined;
+  message?: number = undefined;
+  /** What the summary's first half is built from: the scheduled entry, and the message of an arrival. */
+  private readonly from: Scheduled;
+  msg: Message | undefined = undefined;
+  fidelityText = '';
+  private text: string | undefined = undefined;
 
   constructor(
     readonly index: number,
-    readonly time: number,
-    readonly type: EngineEvent['type'],
-  ) {}
+    from: Scheduled,
+  ) {
+    this.from = from;
+  }
+
+  get time(): number {
+    return this.from.time;
+  }
+
+  get type(): EngineEvent['type'] {
+    return this.from.type;
+  }
 
   get summary(): string {
-    if (this.text === undefined) this.text = summaryOf(this);
+    if (this.text === undefined) this.text = summaryOf(this, this.from);
     return this.text;
+  }
+
+  /** The plain shape of `EngineEvent`, so that a serialised event reads like any other. */
+  toJSON(): EngineEvent {
+    const { index, time, type, node, nodes, summary, fires, sends, deliveries, discards, delivers, pair, message } = this;
+    return { index, time, type, node, nodes, summary, fires, sends, deliveries, discards, delivers, pair, message };
   }
 }
 
-interface Cause {
-  link: string;
-  from: string;
-  kind: string;
-  about: string | null;
-  why: string;
-  fidelity: string;
-}
-
-function summaryOf(ev: AppliedEvent): string {
-  const c = ev.cause;
+function summaryOf(ev: AppliedEvent, s: Scheduled): string {
   let base: string;
-  if (ev.type === 'herald') base = `${c.link} made pair ${ev.pair} (F ${c.fidelity})`;
-  else if (ev.type === 'arrive') base = `${ev.node} got ${c.kind} from ${c.from}${c.about ? ` about ${shortPairId(c.about)}` : ''}`;
-  else base = `${ev.node} woke (${c.why})`;
+  if (s.type === 'herald') base = `${s.link} made pair ${ev.pair} (F ${ev.fidelityText})`;
+  else if (s.type === 'arrive') {
+    const m = ev.msg!;
+    base = `${ev.node} got ${m.kind} from ${m.from}${m.pair ? ` about ${shortPairId(m.pair)}` : ''}`;
+  } else base = `${ev.node} woke (${s.why})`;
   if (ev.fires.length === 0) return base;
   let fired = '';
   for (const f of ev.fires) fired += `${fired ? ', ' : ''}${f.node}.${f.rule}`;
@@ -128,31 +137,27 @@ export function applyNext(net: Net, w: World, detail = true): EngineEvent | null
     if (!s) return null;
   } while (isStale(w, s));
   w.time = s.time;
-  const ev = new AppliedEvent(w.events++, s.time, s.type);
+  const ev = new AppliedEvent(w.events++, s);
   let touched: readonly string[];
   switch (s.type) {
     case 'herald': {
       const info = net.links.get(s.link)!;
       ev.pair = herald(net, w, s.link, s.emitted);
       touched = info.ends;
-      ev.cause.link = s.link;
       // a fresh pair's state is the link's, with no decay applied yet
-      ev.cause.fidelity = info.fidelityText;
+      ev.fidelityText = info.fidelityText;
       break;
     }
     case 'arrive': {
       const m = arrive(w, s.message);
       ev.message = s.message;
-      touched = [m.to];
-      ev.cause.from = m.from;
-      ev.cause.kind = m.kind;
-      ev.cause.about = m.pair;
+      ev.msg = m;
+      touched = net.nodeList(m.to);
       break;
     }
     case 'wake': {
       w.nodes[s.node].nextWake = null;
-      touched = [s.node];
-      ev.cause.why = s.why;
+      touched = net.nodeList(s.node);
       break;
     }
   }

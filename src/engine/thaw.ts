@@ -6,11 +6,16 @@
  * from are replaced by that world's own objects (structural sharing, as immer gives), and
  * the rest is frozen.
  */
+import { DeliveryLog } from './delivered.js';
 import type { Cluster, LinkState, NodeState, PairRecord, QubitState, World } from './types.js';
 
 function copyPair(p: PairRecord): PairRecord {
-  const notes: PairRecord['notes'] = {};
-  for (const k in p.notes) notes[k] = p.notes[k];
+  // a frozen notes record is shared: a `note` step copies it before its first write (fire.ts)
+  let notes = p.notes;
+  if (!Object.isFrozen(notes)) {
+    notes = {};
+    for (const k in p.notes) notes[k] = p.notes[k];
+  }
   return { qubit: p.qubit, id: p.id, partner: p.partner, stage: p.stage, born: p.born, order: p.order, link: p.link, notes };
 }
 
@@ -81,7 +86,8 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
 
 /** Freezes a value and everything new inside it, stopping at what is already frozen. */
 export function deepFreeze<T>(v: T): T {
-  if (v === null || typeof v !== 'object' || Object.isFrozen(v) || ArrayBuffer.isView(v)) return v;
+  // the delivery log is shared by every world of a run and only ever appended to (delivered.ts)
+  if (v === null || typeof v !== 'object' || Object.isFrozen(v) || ArrayBuffer.isView(v) || v instanceof DeliveryLog) return v;
   Object.freeze(v);
   if (Array.isArray(v)) for (const x of v) deepFreeze(x);
   else for (const k in v) deepFreeze((v as Record<string, unknown>)[k]);

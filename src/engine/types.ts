@@ -5,7 +5,7 @@
  */
 import type { Value } from '../expr/types.js';
 import type { Rho } from '../quantum/index.js';
-import type { DeliveredCell } from './delivered.js';
+import type { DeliveredView } from './delivered.js';
 
 /** xoroshiro128+ state (pure-rand), kept inside the world so runs are reproducible. */
 export type RngState = [number, number, number, number];
@@ -140,8 +140,8 @@ export interface World {
   /** Messages on their way, by number. */
   inflight: Record<number, Message>;
   halves: Record<string, HalfDelivery>;
-  /** Delivered pairs, newest first, as an immutable list (see delivered.ts). */
-  delivered: DeliveredCell | null;
+  /** Delivered pairs: this world's view of the run's append-only delivery log (see delivered.ts). */
+  delivered: DeliveredView | null;
   /** The most recent lost messages (at most LOST_KEPT), for explanations. */
   lost: SendRecord[];
   counters: Counters;

@@ -6,7 +6,7 @@ import type { Compiled, ExprFunction, ExprNode, Scope, Value } from './types.js'
 import { describeValue, isRecord, kindOf } from './values.js';
 
 /** Compiles `compiled` into a function of the scope. Evaluation errors are `ExprError` (kind "eval"). */
-export function compileExpr(compiled: Compiled): (scope: Scope) => Value {
+export function compileExpr(compiled: Pick<Compiled, 'ast' | 'source'>): (scope: Scope) => Value {
   return build(compiled.ast, compiled.source);
 }
 

@@ -1,6 +1,7 @@
 /** Recursive-descent parser for the expression language (FORMAT.md §1 "Expressions"). */
 import { ExprError, lineColOf } from './errors.js';
 import { lex, type Token } from './lexer.js';
+import { compileExpr } from './compile.js';
 import type { Compiled, ExprNode } from './types.js';
 
 type BinaryOp = Extract<ExprNode, { type: 'binary' }>['op'];
@@ -37,12 +38,10 @@ export function parseExpr(source: string): Compiled {
 export function parseRange(source: string, start: number, end: number): Compiled {
   const parser = new Parser(source, lex(source, start, end), start);
   const ast = parser.parseAll();
-  return Object.freeze({
-    source,
-    ast,
-    names: Object.freeze([...parser.names]),
-    calls: Object.freeze([...parser.calls]),
-  });
+  const compiled = { source, ast, names: Object.freeze([...parser.names]), calls: Object.freeze([...parser.calls]) };
+  // the closures are built once, here, and kept out of sight of comparisons and JSON
+  Object.defineProperty(compiled, 'run', { value: compileExpr(compiled), enumerable: false });
+  return Object.freeze(compiled);
 }
 
 class Parser {

@@ -33,6 +33,8 @@ export interface Compiled {
   readonly names: readonly string[];
   /** Function names called, in first-use order, without duplicates. */
   readonly calls: readonly string[];
+  /** The expression compiled to closures (not enumerable; built by the parser). */
+  readonly run?: (scope: Scope) => Value;
 }
 
 /** A log line split into literal text and `{expr}` holes (see `parseTemplate`). */

@@ -64,8 +64,14 @@ export function applyGateInPlace(
   angle?: number,
 ): void {
   checkGate(n, gate, qubits, angle);
-  const theta = angle ?? 0;
-  const [a, b] = qubits;
+  gateKernel(d, n, gate, qubits[0], qubits.length > 1 ? qubits[1] : -1, angle ?? 0);
+}
+
+/**
+ * The kernel behind `applyGateInPlace`, without its checks: for callers whose gate, qubits
+ * (b is the second qubit of a two-qubit gate, else unused) and angle are known to be valid.
+ */
+export function gateKernel(d: Float64Array, n: number, gate: GateName, a: number, b: number, theta: number): void {
   switch (gate) {
     case 'x':
       return flipInPlace(d, n, a);
@@ -97,11 +103,19 @@ export function applyGateInPlace(
   }
 }
 
+// Permutations of the cluster sizes that occur (up to 5 qubits) are built once.
+const CACHED = 5;
+const cnotCache: (Int32Array | undefined)[] = [];
+
 function cnotPermutation(n: number, control: number, target: number): Int32Array {
+  const key = (n * CACHED + control) * CACHED + target;
+  const cached = n <= CACHED ? cnotCache[key] : undefined;
+  if (cached !== undefined) return cached;
   const mc = maskOf(n, control);
   const mt = maskOf(n, target);
-  const p = permutationScratch(n);
+  const p = n <= CACHED ? new Int32Array(dimOf(n)) : permutationScratch(n);
   for (let r = 0; r < dimOf(n); r++) p[r] = r & mc ? r ^ mt : r;
+  if (n <= CACHED) cnotCache[key] = p;
   return p;
 }
 

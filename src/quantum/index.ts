@@ -12,7 +12,7 @@ export {
 export type { Mat2 } from './mat2.js';
 export { bellCoefficients, bellDiagonal, bitFlipState, fidelityPhiPlus, wernerState, type BellCoeffs } from './bell.js';
 export { keepQubits, keepQubitsInto, partialTrace, permuteQubits, reducedPair, tensor, tensorInto } from './structure.js';
-export { GATE_NAMES, applyGate, applyGateInPlace, isGateName, type GateName } from './gates.js';
+export { GATE_NAMES, applyGate, applyGateInPlace, gateKernel, isGateName, type GateName } from './gates.js';
 export {
   amplitudeDamp,
   applyKraus1,

@@ -5,7 +5,7 @@
  */
 import { baseFunctions } from '../expr/index.js';
 import type { ExprFunction, Scope, Value } from '../expr/types.js';
-import { deliveredCount, farHalf, hasNext, joinFunction, quiescence, recentDeliveries, twoQubitState, type DeliveryRecord, type Net, type World } from '../engine/index.js';
+import { deliveredWith, farHalf, findDelivery, hasNext, joinFunction, quiescence, twoQubitState, type Net, type World } from '../engine/index.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import { DEBUGGER_FUNCTIONS } from '../model/index.js';
 
@@ -43,11 +43,7 @@ export function pairTruth(net: Net, w: World, id: string): { fidelity: number; b
     const rho = twoQubitState(net, w, held[0], held[1], w.time);
     return { fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
   }
-  let d: DeliveryRecord | undefined;
-  for (const r of recentDeliveries(w)) if (r.id === id) {
-    d = r;
-    break;
-  }
+  const d = findDelivery(w, id);
   return d ? { fidelity: d.fidelity, bell: [...d.bell] as [number, number, number, number] } : undefined;
 }
 
@@ -83,10 +79,7 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
     delivered: (args) => {
       const a = node(net, 'delivered', args[0], 'A');
       const b = node(net, 'delivered', args[1], 'B');
-      if (a === undefined && b === undefined) return deliveredCount(w);
-      let n = 0;
-      for (const r of recentDeliveries(w)) if ((a === undefined || r.ends.includes(a)) && (b === undefined || r.ends.includes(b))) n++;
-      return n;
+      return deliveredWith(w, a, b);
     },
     // the minimum over no deliveries is 1, the identity for a minimum of fidelities
     min_fidelity_delivered: () => w.delivered?.minFidelity ?? 1,

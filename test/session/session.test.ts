@@ -1,7 +1,7 @@
 /** The Session: stepping, rewind, jumps, breakpoints, watches and explanations. */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { deliveredCount, type Engine, type World } from '../../src/engine/index.js';
+import { deliveredCount, recentDeliveries, type Engine, type World } from '../../src/engine/index.js';
 import { Session } from '../../src/session/session.js';
 import { InputError } from '../../src/model/errors.js';
 import { DISAGREE_NET, engineFrom, noiseWith, purificationNet, SWAP_NET } from '../engine/scenarios.js';
@@ -176,7 +176,7 @@ describe('watches and explanations', () => {
     for (let i = 0; i < 30; i++) s.stepForward();
     const [w] = s.watches();
     expect(Number(w.value)).toBe(deliveredCount(s.world()));
-    const last = s.world().delivered!.record;
+    const last = recentDeliveries(s.world()).next().value!;
     // the change happened at the event that completed the last delivery
     expect(s.history.records[w.changedAt!].time_ns).toBe(last.time_ns);
   });

@@ -22,6 +22,8 @@ export interface RoleDef {
   readonly name: string;
   readonly params: readonly string[];
   readonly raw: RawRole;
+  /** Its parameters are usable names, so the values nodes give can be checked against them. */
+  readonly paramsOk: boolean;
   /** Its rules built without errors, so nodes may play it. */
   readonly sound: boolean;
 }
@@ -82,7 +84,7 @@ export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySe
     }
     const params = role.params ?? [];
     const usedBy = usedByText(users.get(name));
-    checkParams(ctx, name, params, nodeIds, usedBy);
+    const paramsOk = checkParams(ctx, name, params, nodeIds, usedBy);
     const rp: RoleParams = { role: name, names: new Set(params), usedBy };
     const rb: RuleBuild = { ctx, ex: new ExprCompiler(ctx.src, ctx.errors), nodeIds, params: rp };
     const names = new Map<string, number>();
@@ -98,7 +100,7 @@ export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySe
       } else names.set(r.name, i);
       buildRule(rb, r, path, '', i);
     });
-    roles.set(name, { name, params, raw: role, sound: ctx.errors.length === before });
+    roles.set(name, { name, params, raw: role, paramsOk, sound: ctx.errors.length === before });
   }
   return roles;
 }
@@ -167,6 +169,8 @@ export function expandUses(ctx: FileCtx, node: string, uses: readonly RawUse[], 
       return;
     }
     played.set(name, i);
+    // values for parameters that are themselves wrong would only repeat that error at every node
+    if (!role.paramsOk) return;
     const args = bindArgs(ctx, node, role, u, usePath, nodeIds);
     if (!args || !role.sound) return;
     const rb: RuleBuild = { ctx, ex: new ExprCompiler(ctx.src, ctx.errors, args), nodeIds };

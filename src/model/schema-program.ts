@@ -156,9 +156,8 @@ function schemas(mode: Mode) {
     'A named rule list that many nodes can play, with parameters.',
   );
   // Each value is checked while expanding (a node id, a number or a quoted string), with a did-you-mean.
-  const argValue = z
-    .union([z.string(), z.number()])
-    .describe('The value of a parameter: a node id, a number, or a quoted string such as "\'near\'".');
+  const argText = 'The value of a parameter: a node id, a number, or a quoted string such as "\'near\'".';
+  const argValue = mode === 'json' ? z.union([z.string(), z.number()]).describe(argText) : z.unknown().describe(argText);
   const useByName = roleName().describe('A role without parameters, by name.');
   const useWithArgs = obj(
     {

@@ -13,7 +13,7 @@ import { ExprCompiler } from './expressions.js';
 import type { FileCtx } from './file-ctx.js';
 import { argText, originText } from './role-args.js';
 import { LABEL_RE, type RawProgramSet, type RawRole, type RawUse } from './schema-program.js';
-import { didYouMean, listWords } from './suggest.js';
+import { closest, didYouMean, listWords } from './suggest.js';
 import type { Rule, RuleOrigin } from './types.js';
 import { fieldName, type Path } from './yaml-source.js';
 
@@ -128,7 +128,7 @@ function bindArgs(ctx: FileCtx, node: string, role: RoleDef, u: RawUse, usePath:
   }
   const missing = role.params.filter((p) => !Object.hasOwn(given, p));
   // a misspelt name was reported above with its suggestion; do not also call the intended one missing
-  const misspelt = new Set(Object.keys(given).filter((k) => !role.params.includes(k)).map((k) => role.params.find((p) => didYouMean(k, [p]) !== '')));
+  const misspelt = new Set(Object.keys(given).filter((k) => !role.params.includes(k)).map((k) => closest(k, role.params)));
   const reallyMissing = missing.filter((p) => !misspelt.has(p));
   if (reallyMissing.length > 0) {
     ok = false;

@@ -32,6 +32,7 @@ export interface RawRole {
 }
 /** A role a node plays: its name alone, or the name with parameter values. */
 export type RawUse = string | { readonly role: string; readonly args?: Readonly<Record<string, unknown>> };
+/** One node's program: the roles it plays, then its own rules. */
 export interface RawProgram {
   readonly use?: readonly RawUse[];
   readonly rules?: readonly RawRule[];

@@ -245,6 +245,8 @@ export interface StallEntry {
   kind: Guard['kind'];
   text: string;
   reason: string;
+  /** For a rule that came from a role: `roles.repeater.rules[0] (at s8, left=s0 right=s16)`. */
+  from?: string;
 }
 
 /** The stall report: each node with a program, mapped to its waiting rules. */
@@ -254,10 +256,13 @@ export function stallReport(net: Net, w: World): Record<string, StallEntry[]> {
     const rules = net.rules.get(node) ?? [];
     if (rules.length === 0) continue;
     out[node] = explainNode(net, w, node)
-      .filter((e) => !e.ready)
-      .map((e) => {
+      .map((e, i) => ({ e, from: rules[i].from }))
+      .filter(({ e }) => !e.ready)
+      .map(({ e, from }) => {
         const g = e.guards.find((x) => x.state === 'fails')!;
-        return { rule: e.rule, guard: g.index, kind: g.kind, text: g.text, reason: g.reason ?? e.summary };
+        const entry: StallEntry = { rule: e.rule, guard: g.index, kind: g.kind, text: g.text, reason: g.reason ?? e.summary };
+        if (from) entry.from = from.text;
+        return entry;
       });
   }
   return out;

@@ -7,7 +7,7 @@
 import { evaluate, ExprError } from '../expr/index.js';
 import type { Value } from '../expr/types.js';
 import type { Expr, Guard, HaveGuard, Rule } from '../model/types.js';
-import { offsetPos, staticNode } from '../model/index.js';
+import { exprPos, staticNode } from '../model/index.js';
 import { ProgramError } from './errors.js';
 import type { Bindings, RuleScope } from './scope.js';
 import type { Message, PairRecord, World } from './types.js';
@@ -34,7 +34,7 @@ export function evalIn(expr: Expr, scope: RuleScope, node: string, rule: string)
     return evaluate(expr.compiled, scope);
   } catch (e) {
     if (e instanceof ExprError) {
-      const pos = offsetPos(expr.pos, expr.compiled.source, e.offset);
+      const pos = exprPos(expr, e.offset);
       throw new ProgramError(`${e.detail} in "${expr.compiled.source}"`, { pos, node, rule });
     }
     throw e;

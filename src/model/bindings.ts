@@ -20,6 +20,14 @@ export interface Binding {
   readonly pos: SourcePos;
 }
 
+/** A role's parameters while its rules are checked as written, before any node's values are put in. */
+export interface RoleParams {
+  readonly role: string;
+  readonly names: ReadonlySet<string>;
+  /** The nodes that play the role, for messages: " (used by s2, s4)". */
+  readonly usedBy: string;
+}
+
 const RESERVED = new Set(['true', 'false', 'null']);
 const KIND_WORDS: Record<BindingKind, string> = { pair: 'a pair', message: 'a message', bit: 'a measured bit' };
 
@@ -33,11 +41,17 @@ export class RuleScope {
     private readonly all: ReadonlyMap<string, Binding>,
     private readonly errors: InputError[],
     private readonly parent?: RuleScope,
+    /** Names that stand for node ids in a role's rules. */
+    private readonly params?: RoleParams,
   ) {}
 
   /** A scope for an `if` branch. */
   child(): RuleScope {
-    return new RuleScope(this.nodeIds, this.all, this.errors, this);
+    return new RuleScope(this.nodeIds, this.all, this.errors, this, this.params);
+  }
+
+  private isParam(name: string): boolean {
+    return this.params?.names.has(name) ?? false;
   }
 
   lookup(name: string): Binding | undefined {
@@ -52,6 +66,17 @@ export class RuleScope {
   /** Binds a name, refusing node ids, literals and names already bound. */
   bind(b: Binding, path: Path): void {
     const field = fieldName(path);
+    if (this.params && this.isParam(b.name)) {
+      this.errors.push(
+        InputError.at(b.pos, {
+          code: 'reference',
+          field,
+          message: `${b.by} may not bind "${b.name}": it is a parameter of role "${this.params.role}"${this.params.usedBy}, so it already stands for a node`,
+          fix: `pick another name, e.g. "${b.name}_${b.kind}", or rename the parameter`,
+        }),
+      );
+      return;
+    }
     if (this.nodeIds.has(b.name)) {
       this.errors.push(
         InputError.at(b.pos, {
@@ -111,7 +136,7 @@ export class RuleScope {
     return InputError.at(pos, {
       code: 'reference',
       field,
-      message: `unknown name "${name}"${didYouMean(name, [...this.visible(), ...this.nodeIds])}`,
+      message: `unknown name "${name}"${didYouMean(name, [...this.visible(), ...(this.params?.names ?? []), ...this.nodeIds])}`,
       fix: `bind it first with "as: ${name}" on a have or got guard (or a measure step), or use a node id`,
     });
   }
@@ -120,7 +145,7 @@ export class RuleScope {
   reads(e: Expr | undefined, path: Path): void {
     if (!e) return;
     for (const name of e.compiled.names) {
-      if (this.nodeIds.has(name) || this.lookup(name)) continue;
+      if (this.nodeIds.has(name) || this.isParam(name) || this.lookup(name)) continue;
       this.errors.push(this.unbound(name, namePos(e, name), fieldName(path), 'name'));
     }
   }
@@ -137,6 +162,17 @@ export class RuleScope {
           field,
           message: `"${name}" is ${KIND_WORDS[b.kind]} (bound by ${b.by} at line ${b.pos.line}), not a pair`,
           fix: 'name a pair bound by "as:" on a have guard',
+        }),
+      );
+      return;
+    }
+    if (this.params && this.isParam(name)) {
+      this.errors.push(
+        InputError.at(pos, {
+          code: 'reference',
+          field,
+          message: `"${name}" is a parameter of role "${this.params.role}" (it stands for a node), not a pair`,
+          fix: `bind the pair you hold with it, e.g. "have: {partner: ${name}, as: p}", and name it here`,
         }),
       );
       return;

@@ -1,5 +1,5 @@
 /** Typed guards from validated YAML, with the binding rules of FORMAT.md §1. */
-import type { Binding, RuleScope } from './bindings.js';
+import type { Binding, RoleParams, RuleScope } from './bindings.js';
 import type { ExprCompiler } from './expressions.js';
 import type { FileCtx } from './file-ctx.js';
 import type { RawItem } from './schema-program.js';
@@ -12,6 +12,8 @@ export interface RuleBuild {
   readonly ctx: FileCtx;
   readonly ex: ExprCompiler;
   readonly nodeIds: ReadonlySet<string>;
+  /** Set while a role's rules are checked as written (model/roles.ts). */
+  readonly params?: RoleParams;
 }
 
 interface RawHave {

@@ -1,8 +1,8 @@
 /** Expressions read from files: compiled once, located in the file, checked for allowed functions. */
-import { ExprError, parseExpr, parseTemplate, type Compiled, type ExprNode } from '../expr/index.js';
+import { ExprError, parseExpr, parseTemplate, type Compiled, type ExprNode, type Template } from '../expr/index.js';
 import { InputError } from './errors.js';
 import { didYouMean } from './suggest.js';
-import type { Expr, SourcePos } from './types.js';
+import type { Expr, SourcePos, WrittenText } from './types.js';
 import { fieldName, type Path, type SourceDoc } from './yaml-source.js';
 
 /** Functions a node's program may call. */
@@ -77,18 +77,104 @@ export function offsetPos(start: SourcePos, source: string, offset: number): Sou
   return { file: start.file, line: start.line + newlines, col: offset - before.lastIndexOf('\n') };
 }
 
+/**
+ * Where offset `offset` of an expression's compiled source lies in the file. For a text with
+ * role parameters substituted, an offset inside a substituted value points at the parameter
+ * as written, and one after it is moved back by the difference in length.
+ */
+export function exprPos(e: Expr, offset: number): SourcePos {
+  const w = e.written;
+  if (!w) return offsetPos(e.pos, e.compiled.source, offset);
+  let shift = 0;
+  for (const edit of w.edits) {
+    if (offset < edit.at) break;
+    if (offset < edit.at + edit.text.length) return offsetPos(e.pos, w.source, edit.from);
+    shift += edit.to - edit.from - edit.text.length;
+  }
+  return offsetPos(e.pos, w.source, offset + shift);
+}
+
 /** Where in the file a name is first read by an expression. */
 export function namePos(e: Expr, name: string): SourcePos {
   const hit = findNode(e.compiled.ast, (n) => n.type === 'name' && n.name === name);
-  return offsetPos(e.pos, e.compiled.source, hit?.start ?? 0);
+  return exprPos(e, hit?.start ?? 0);
 }
 
-/** Compiles expressions of one file and records what is wrong with them. */
+/**
+ * The replacements that put parameter values (`args`, by name) in place of the names read
+ * in `asts` (which all point into `source`), or undefined when no parameter is read.
+ */
+export function substituteParams(source: string, asts: readonly ExprNode[], args: ReadonlyMap<string, string>): WrittenText | undefined {
+  const hits: { start: number; end: number; name: string }[] = [];
+  for (const ast of asts) {
+    findNode(ast, (n) => {
+      if (n.type === 'name' && args.has(n.name)) hits.push({ start: n.start, end: n.end, name: n.name });
+      return false;
+    });
+  }
+  if (hits.length === 0) return undefined;
+  hits.sort((a, b) => a.start - b.start);
+  let shift = 0;
+  const edits = hits.map((h) => {
+    const text = args.get(h.name) as string;
+    const edit = { from: h.start, to: h.end, at: h.start + shift, text };
+    shift += text.length - (h.end - h.start);
+    return edit;
+  });
+  return { source, edits };
+}
+
+/** The text after the replacements of `w`. */
+export function applyEdits(w: WrittenText): string {
+  let out = '';
+  let from = 0;
+  for (const e of w.edits) {
+    out += w.source.slice(from, e.from) + e.text;
+    from = e.to;
+  }
+  return out + w.source.slice(from);
+}
+
+/**
+ * Compiles expressions of one file and records what is wrong with them. With `args` (a
+ * role's parameter values for one node), each expression is compiled as written, then
+ * again with the values in place of the parameters, as a hand-written rule would say it.
+ */
 export class ExprCompiler {
   constructor(
     private readonly src: SourceDoc,
     private readonly errors: InputError[],
+    private readonly args?: ReadonlyMap<string, string>,
   ) {}
+
+  /** The substituted text, or undefined when no parameter is read (or it does not parse; that error is recorded). */
+  private substituted(
+    written: string,
+    asts: readonly ExprNode[],
+    start: SourcePos,
+    path: Path,
+    parse: (text: string) => unknown,
+  ): { text: string; w: WrittenText } | undefined {
+    if (!this.args) return undefined;
+    const w = substituteParams(written, asts, this.args);
+    if (!w) return undefined;
+    const text = applyEdits(w);
+    try {
+      parse(text);
+    } catch (err) {
+      if (!(err instanceof ExprError)) throw err;
+      this.errors.push(
+        InputError.at(start, {
+          code: 'expression',
+          field: fieldName(path),
+          message: `with the parameter values in place, ${JSON.stringify(written)} reads ${JSON.stringify(text)}, which does not parse: ${err.detail}`,
+          fix: 'give the parameter a value that fits where it is used (a number can be put in parentheses)',
+        }),
+      );
+      return undefined;
+    }
+    return { text, w };
+  }
 
   private parseError(err: unknown, start: SourcePos, path: Path, source: string): void {
     if (!(err instanceof ExprError)) throw err;
@@ -106,7 +192,7 @@ export class ExprCompiler {
   private checkCalls(e: Expr, path: Path): void {
     for (const fn of e.compiled.calls) {
       const hit = findNode(e.compiled.ast, (n) => n.type === 'call' && n.callee === fn);
-      const pos = offsetPos(e.pos, e.compiled.source, hit?.start ?? 0);
+      const pos = exprPos(e, hit?.start ?? 0);
       if (DEBUGGER_FUNCTIONS.includes(fn)) {
         this.errors.push(
           InputError.at(pos, {
@@ -142,24 +228,25 @@ export class ExprCompiler {
     }
     const e: Expr = { compiled, pos };
     this.checkCalls(e, path);
-    return e;
+    const sub = this.substituted(source, [compiled.ast], pos, path, parseExpr);
+    return sub ? { compiled: parseExpr(sub.text), pos, written: sub.w } : e;
   }
 
   /** Splits a log text into literal parts and expressions (`{expr}` holes). */
   template(path: Path, text: string): (string | Expr)[] | undefined {
     const pos = this.src.textStartAt(path);
+    let t: Template;
     try {
-      const t = parseTemplate(text);
-      return t.parts.map((p) => {
-        if (typeof p === 'string') return p;
-        // Each hole keeps the whole log text as its source, so its offsets start at the text.
-        const e: Expr = { compiled: p, pos };
-        this.checkCalls(e, path);
-        return e;
-      });
+      t = parseTemplate(text);
     } catch (err) {
       this.parseError(err, pos, path, text);
       return undefined;
     }
+    // Each hole keeps the whole log text as its source, so its offsets start at the text.
+    for (const p of t.parts) if (typeof p !== 'string') this.checkCalls({ compiled: p, pos }, path);
+    const holes = t.parts.filter((p): p is Compiled => typeof p !== 'string');
+    const sub = this.substituted(text, holes.map((h) => h.ast), pos, path, parseTemplate);
+    if (!sub) return t.parts.map((p) => (typeof p === 'string' ? p : { compiled: p, pos }));
+    return parseTemplate(sub.text).parts.map((p) => (typeof p === 'string' ? p : { compiled: p, pos, written: sub.w }));
   }
 }

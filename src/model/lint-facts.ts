@@ -104,7 +104,27 @@ function optional<K extends string>(key: K, value: string | undefined): Partial<
   return value === undefined ? {} : ({ [key]: value } as Record<K, string>);
 }
 
-/** A finding located at `pos`. */
-export function finding(code: string, pos: SourcePos, message: string, fix: string): Finding {
-  return { code, file: pos.file, line: pos.line, col: pos.col, message, fix };
+// Which rule each finding is about, kept beside the findings so their JSON keys stay as they are.
+const aboutRule = new WeakMap<Finding, Rule>();
+
+/** A finding located at `pos`, about `rule`. */
+export function finding(code: string, pos: SourcePos, message: string, fix: string, rule: Rule): Finding {
+  const f: Finding = { code, file: pos.file, line: pos.line, col: pos.col, message, fix };
+  aboutRule.set(f, rule);
+  return f;
+}
+
+/** The rule a finding is about (the debugger shows findings under their rule). */
+export function findingRule(f: Finding): Rule | undefined {
+  return aboutRule.get(f);
+}
+
+/** `rule "swap" at s8`, or for a rule a role made, `rule "swap" from roles.repeater.rules[0] (at s8, left=s0 right=s16)`. */
+export function ruleAtNode(rule: Rule): string {
+  return rule.from ? `rule "${rule.name}" from ${rule.from.text}` : `rule "${rule.name}" at ${rule.node}`;
+}
+
+/** `rule "swap" (line 14)`, followed by the role entry for a rule a role made. */
+export function ruleWithLine(rule: Rule): string {
+  return `rule "${rule.name}" (line ${rule.pos.line})${rule.from ? ` from ${rule.from.text}` : ''}`;
 }

@@ -3,14 +3,15 @@
  * never sent), and stages entered but never matched (and expected but never entered).
  * When the two sides differ by a small spelling change, one finding names both spellings.
  */
-import { finding, type Facts, type Finding, type GotFact, type HaveFact, type SendFact, type StageFact } from './lint-facts.js';
+import { finding, ruleAtNode, ruleWithLine, type Facts, type Finding, type GotFact, type HaveFact, type SendFact, type StageFact } from './lint-facts.js';
+import type { Rule } from './types.js';
 import { editDistance } from './suggest.js';
 
 /** Near spellings that count as a likely typo. */
 const TYPO_DISTANCE = 2;
 
-function line(f: { rule: { name: string; pos: { line: number } } }): string {
-  return `rule "${f.rule.name}" (line ${f.rule.pos.line})`;
+function line(f: { rule: Rule }): string {
+  return ruleWithLine(f.rule);
 }
 
 function awaits(g: GotFact, s: SendFact, kind = s.step.msgKind): boolean {
@@ -42,6 +43,7 @@ export function lintMessages(facts: Facts): Finding[] {
           g.guard.pos,
           `${g.node} waits for message kind "${g.guard.msgKind}" in ${line(g)}, but ${near.s.node} sends "${sent}" to ${g.node} (line ${near.s.step.pos.line}): probably a typo, and the rule can never fire`,
           `spell the kind the same in both places ("${sent}" or "${g.guard.msgKind}")`,
+          g.rule,
         ),
       );
       continue;
@@ -51,8 +53,9 @@ export function lintMessages(facts: Facts): Finding[] {
       finding(
         'rule-dead',
         g.rule.pos,
-        `rule "${g.rule.name}" at ${g.node} can never fire: its got guard (line ${g.guard.pos.line}) waits for message kind "${g.guard.msgKind}"${from}, which no rule sends to ${g.node}`,
+        `${ruleAtNode(g.rule)} can never fire: its got guard (line ${g.guard.pos.line}) waits for message kind "${g.guard.msgKind}"${from}, which no rule sends to ${g.node}`,
         `add a send of "${g.guard.msgKind}" to ${g.node}${g.from ? ` in a rule at ${g.from}` : ''}, or fix the kind`,
+        g.rule,
       ),
     );
   }
@@ -66,6 +69,7 @@ export function lintMessages(facts: Facts): Finding[] {
         s.step.pos,
         `${s.node} sends message kind "${s.step.msgKind}" to ${s.to} in ${line(s)}, but no rule at ${s.to} waits for it${why}`,
         `add a rule at ${s.to} with "got: {kind: ${s.step.msgKind}}", or remove the send`,
+        s.rule,
       ),
     );
   }
@@ -112,6 +116,7 @@ export function lintStages(facts: Facts): Finding[] {
             h.guard.pos,
             `at ${node}, ${line(h)} waits for pairs in stage "${want}", but ${line(near.s)} moves pairs to stage "${got}": probably a typo, and the rule can never fire`,
             `spell the stage the same in both places ("${got}" or "${want}")`,
+            h.rule,
           ),
         );
         continue;
@@ -122,6 +127,7 @@ export function lintStages(facts: Facts): Finding[] {
           h.guard.pos,
           `at ${node}, ${line(h)} waits for pairs in stage "${want}", but no rule at ${node} moves a pair there, so the rule can never fire`,
           `add a step "stage: {pair: ..., to: ${want}}" to a rule at ${node}, or expect a stage that is entered (${[...entered].join(', ')})`,
+          h.rule,
         ),
       );
     }
@@ -133,6 +139,7 @@ export function lintStages(facts: Facts): Finding[] {
           s.step.pos,
           `at ${node}, ${line(s)} moves a pair to stage "${s.step.to}", but no have guard at ${node} takes pairs in that stage, so they stay held`,
           `add a rule at ${node} with "have: {partner: ..., stage: ${s.step.to}}", or move the pair to a stage that is used`,
+          s.rule,
         ),
       );
     }

@@ -4,7 +4,7 @@
  * partner with no swapping anywhere, a check that is the literal false).
  */
 import { literalValue } from './expressions.js';
-import { finding, type Facts, type Finding } from './lint-facts.js';
+import { finding, ruleAtNode, type Facts, type Finding } from './lint-facts.js';
 import type { LinkDef, ProgramSet } from './types.js';
 
 /** Link ids by node pair, and the nodes each node can reach over fiber. */
@@ -48,9 +48,9 @@ export function lintReach(ps: ProgramSet, facts: Facts): Finding[] {
   const out: Finding[] = [];
   for (const h of facts.haves) {
     if (h.partner === undefined) continue;
-    const where = `rule "${h.rule.name}" at ${h.node}`;
+    const where = ruleAtNode(h.rule);
     if (h.partner === h.node) {
-      out.push(finding('partner-self', h.guard.pos, `${where} waits for pairs shared with ${h.node} itself, which cannot exist`, "name the node at the pair's other end"));
+      out.push(finding('partner-self', h.guard.pos, `${where} waits for pairs shared with ${h.node} itself, which cannot exist`, "name the node at the pair's other end", h.rule));
     } else if (!g.reachable(h.node, h.partner)) {
       out.push(
         finding(
@@ -58,15 +58,16 @@ export function lintReach(ps: ProgramSet, facts: Facts): Finding[] {
           h.guard.pos,
           `${where} waits for pairs shared with ${h.partner}, but no fiber path joins ${h.node} and ${h.partner}, so no such pair can ever arise`,
           `add links that join ${h.node} to ${h.partner}, or pick a partner in the same network`,
+          h.rule,
         ),
       );
     }
   }
   for (const s of facts.sends) {
     if (s.to === undefined) continue;
-    const where = `rule "${s.rule.name}" at ${s.node}`;
+    const where = ruleAtNode(s.rule);
     if (s.to === s.node) {
-      out.push(finding('partner-self', s.step.pos, `${where} sends "${s.step.msgKind}" to ${s.node} itself`, 'messages go to other nodes; keep the value in a note on the pair instead'));
+      out.push(finding('partner-self', s.step.pos, `${where} sends "${s.step.msgKind}" to ${s.node} itself`, 'messages go to other nodes; keep the value in a note on the pair instead', s.rule));
     } else if (!g.reachable(s.node, s.to)) {
       out.push(
         finding(
@@ -74,6 +75,7 @@ export function lintReach(ps: ProgramSet, facts: Facts): Finding[] {
           s.step.pos,
           `${where} sends "${s.step.msgKind}" to ${s.to}, but messages travel the fiber and no path joins ${s.node} and ${s.to}`,
           `add links that join ${s.node} to ${s.to}, or send to a node in the same network`,
+          s.rule,
         ),
       );
     }
@@ -90,7 +92,7 @@ export function lintDeadRules(ps: ProgramSet, facts: Facts): Finding[] {
     if (h.guard.kind !== 'have' || h.partner === undefined || h.partner === h.node) continue;
     const guard = h.guard;
     const dead = (why: string, fix: string) =>
-      out.push(finding('rule-dead', h.rule.pos, `rule "${h.rule.name}" at ${h.node} can never fire: its have guard (line ${guard.pos.line}) ${why}`, fix));
+      out.push(finding('rule-dead', h.rule.pos, `${ruleAtNode(h.rule)} can never fire: its have guard (line ${guard.pos.line}) ${why}`, fix, h.rule));
     const link = g.link(h.node, h.partner);
     if (link) {
       // Swapped-in pairs (rebind) or pairs moved back to "link" could add to the count.
@@ -115,8 +117,9 @@ export function lintDeadRules(ps: ProgramSet, facts: Facts): Finding[] {
         finding(
           'rule-dead',
           c.rule.pos,
-          `rule "${c.rule.name}" at ${c.node} can never fire: its check (line ${c.guard.pos.line}) is always ${String(v)}`,
+          `${ruleAtNode(c.rule)} can never fire: its check (line ${c.guard.pos.line}) is always ${String(v)}`,
           'write the intended condition, or remove the rule',
+          c.rule,
         ),
       );
     }

@@ -1,15 +1,14 @@
 /** Loads a program set (`*.net.yaml`, FORMAT.md §1) into the typed value of types.ts. */
-import { RuleScope, type Binding } from './bindings.js';
-import { buildGuard, guardBindings, type RuleBuild } from './build-guards.js';
-import { buildSteps, stepBindingSites } from './build-steps.js';
+import type { RuleBuild } from './build-guards.js';
+import { buildRule } from './build-rule.js';
 import { ExprCompiler } from './expressions.js';
 import { FileCtx } from './file-ctx.js';
 import { openFile } from './open-file.js';
-import { programValidation, type RawProgramSet, type RawRule } from './schema-program.js';
+import { checkRoles, checkRuleNames, expandUses, roleDuplicateKey } from './roles.js';
+import { programValidation, type RawProgramSet } from './schema-program.js';
 import { didYouMean } from './suggest.js';
-import type { Guard, LinkDef, NodeDef, Program, ProgramSet, Rule } from './types.js';
+import type { LinkDef, NodeDef, Program, ProgramSet } from './types.js';
 import { parseLength } from './units.js';
-import type { Path } from './yaml-source.js';
 
 /** The link id of two node ids: "a~b" with the ends sorted. */
 export function linkId(a: string, b: string): string {
@@ -74,47 +73,21 @@ function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[])
   return links;
 }
 
-function buildRule(rb: RuleBuild, raw: RawRule, path: Path, node: string, index: number): Rule {
-  const { ctx } = rb;
-  // Every binding in the rule, so a name read too early can be told where it gets bound.
-  const all = new Map<string, Binding>();
-  raw.when.forEach((g, i) => {
-    for (const b of guardBindings(rb, g, [...path, 'when', i])) if (!all.has(b.name)) all.set(b.name, b);
-  });
-  const sites = new Map<string, { by: string; path: Path }>();
-  stepBindingSites(raw.do, [...path, 'do'], sites);
-  for (const [name, s] of sites) if (!all.has(name)) all.set(name, { name, kind: 'bit', by: s.by, pos: ctx.pos(s.path) });
-
-  const scope = new RuleScope(rb.nodeIds, all, ctx.errors);
-  const when: Guard[] = [];
-  raw.when.forEach((g, i) => {
-    const gp = [...path, 'when', i];
-    const built = buildGuard(rb, g, gp, scope);
-    if (built) when.push(built);
-    for (const b of guardBindings(rb, g, gp)) scope.bind(b, gp);
-  });
-  const steps = buildSteps(rb, raw.do, [...path, 'do'], scope);
-  return { name: raw.name, node, index, when, do: steps, pos: ctx.pos(path) };
-}
-
 function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[]): Record<string, Program> {
   const ids = nodes.map((n) => n.id);
-  const rb: RuleBuild = { ctx, ex: new ExprCompiler(ctx.src, ctx.errors), nodeIds: new Set(ids) };
+  const nodeIds = new Set(ids);
+  const rb: RuleBuild = { ctx, ex: new ExprCompiler(ctx.src, ctx.errors), nodeIds };
+  const roles = checkRoles(ctx, raw, nodeIds);
   const programs: Record<string, Program> = {};
   for (const [node, prog] of Object.entries(raw.programs ?? {})) {
     if (!ids.includes(node)) {
       ctx.error(['programs'], { code: 'reference', message: `unknown node "${node}"${didYouMean(node, ids)}`, fix: 'programs are keyed by node ids declared under "nodes"' }, node);
       continue;
     }
-    const names = new Map<string, number>();
-    const rules = prog.rules.map((r, i) => {
-      const path = ['programs', node, 'rules', i];
-      const first = names.get(r.name);
-      if (first !== undefined) {
-        ctx.error([...path, 'name'], { code: 'duplicate', message: `duplicate rule name "${r.name}" at ${node} (first at line ${ctx.pos(['programs', node, 'rules', first]).line})`, fix: 'give every rule of a node its own name' });
-      } else names.set(r.name, i);
-      return buildRule(rb, r, path, node, i);
-    });
+    // a node's roles come first, then its own rules (FORMAT.md §1 "Roles")
+    const rules = expandUses(ctx, node, prog.use ?? [], roles, nodeIds);
+    (prog.rules ?? []).forEach((r, i) => rules.push(buildRule(rb, r, ['programs', node, 'rules', i], node, rules.length)));
+    checkRuleNames(ctx, node, rules);
     programs[node] = { node, rules, pos: ctx.src.keyPosAt(['programs'], node) };
   }
   return programs;
@@ -122,7 +95,7 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef
 
 /** Parses and validates a program set; throws InputErrors naming file:line:col for anything wrong. */
 export function loadProgramSet(file: string, text: string): ProgramSet {
-  const { ctx, raw } = openFile<RawProgramSet>(file, text, 'program set', programValidation.programSet);
+  const { ctx, raw } = openFile<RawProgramSet>(file, text, 'program set', programValidation.programSet, roleDuplicateKey);
   const nodes = buildNodes(ctx, raw);
   const links = buildLinks(ctx, raw, nodes);
   const programs = buildPrograms(ctx, raw, nodes);

@@ -4,7 +4,7 @@
  * value. The same factory serves validation and the published JSON Schema.
  */
 import { z } from 'zod';
-import { count, durationText, encodeIssue, keyed, lengthText, obj, word, type Mode } from './zod-kit.js';
+import { count, describeValue, durationText, encodeIssue, humanErrorMap, keyed, lengthText, obj, word, type Mode } from './zod-kit.js';
 
 /** Node ids: lower-case letters, digits and dashes, starting with a letter. */
 export const NODE_ID_RE = /^[a-z][a-z0-9-]*$/;
@@ -25,12 +25,25 @@ export interface RawRule {
   readonly when: readonly RawItem[];
   readonly do: readonly RawItem[];
 }
+/** A role (FORMAT.md §1 "Roles"): a named rule list with parameters. */
+export interface RawRole {
+  readonly params?: readonly string[];
+  readonly rules: readonly RawRule[];
+}
+/** A role a node plays: its name alone, or the name with parameter values. */
+export type RawUse = string | { readonly role: string; readonly args?: Readonly<Record<string, unknown>> };
+/** One node's program: the roles it plays, then its own rules. */
+export interface RawProgram {
+  readonly use?: readonly RawUse[];
+  readonly rules?: readonly RawRule[];
+}
 export interface RawProgramSet {
   readonly format: string;
   readonly title?: string;
   readonly nodes: readonly { readonly id: string; readonly qubits: number }[];
   readonly links?: readonly { readonly ends: readonly [string, string]; readonly length: string; readonly slots: number }[];
-  readonly programs?: Readonly<Record<string, { readonly rules: readonly RawRule[] }>>;
+  readonly roles?: Readonly<Record<string, RawRole>>;
+  readonly programs?: Readonly<Record<string, RawProgram>>;
 }
 
 function schemas(mode: Mode) {
@@ -132,6 +145,48 @@ function schemas(mode: Mode) {
     },
     'A guarded rule.',
   );
+  const roleName = () => word(LABEL_RE, 'a role name', '"repeater" (letters, digits, "_" and "-")');
+  const role = obj(
+    {
+      params: z
+        .array(bindName())
+        .describe('Names that the rules may use like node ids; each node that plays the role gives them values under "args".')
+        .optional(),
+      rules: z.array(rule).min(1).describe("Rules tried, in this order, before the node's own rules."),
+    },
+    'A named rule list that many nodes can play, with parameters.',
+  );
+  // Each value is checked while expanding (a node id, a number or a quoted string), with a did-you-mean.
+  const argText = 'The value of a parameter: a node id, a number, or a quoted string such as "\'near\'".';
+  const argValue = mode === 'json' ? z.union([z.string(), z.number()]).describe(argText) : z.unknown().describe(argText);
+  const useByName = roleName().describe('A role without parameters, by name.');
+  const useWithArgs = obj(
+    {
+      role: roleName().describe('The role to play.'),
+      args: z.record(mode === 'json' ? bindName() : z.string(), argValue).describe('A value for every parameter of the role.').optional(),
+    },
+    'A role to play, with a value for each of its parameters.',
+  );
+  const useText = 'A role the node plays: its name, or {role: NAME, args: {...}}.';
+  // Validation picks the variant by the value's type, so errors are those of the intended form.
+  const use =
+    mode === 'json'
+      ? z.union([useByName, useWithArgs]).describe(useText)
+      : z.unknown().superRefine((value, ctx) => {
+          if (typeof value !== 'string' && (typeof value !== 'object' || value === null || Array.isArray(value))) {
+            ctx.addIssue({ code: 'custom', input: value, message: encodeIssue({ m: `expected a role name or {role: NAME, args: {...}}, got ${describeValue(value)}`, f: 'write e.g. "- relabel" or "- {role: repeater, args: {left: s0, right: s4}}"' }) });
+            return;
+          }
+          const r = (typeof value === 'string' ? useByName : useWithArgs).safeParse(value, { error: humanErrorMap });
+          if (!r.success) for (const i of r.error.issues) ctx.addIssue({ code: 'custom', message: i.message, path: i.path, input: value });
+        });
+  const program = obj(
+    {
+      use: z.array(use).describe("The roles this node plays; their rules are tried first, in this order.").optional(),
+      rules: z.array(rule).describe("The node's own rules, tried after its roles' rules, after every event that touches the node.").optional(),
+    },
+    'The rules one node runs: the roles it plays, then its own rules.',
+  );
   const programSet = obj(
     {
       format: z.literal(PROGRAM_SET_FORMAT).describe(`Always "${PROGRAM_SET_FORMAT}".`),
@@ -147,9 +202,14 @@ function schemas(mode: Mode) {
         )
         .describe('Fiber links that generate Bell pairs.')
         .optional(),
+      roles: z
+        // Names are checked while expanding, so a bad one is reported with its position.
+        .record(mode === 'json' ? roleName() : z.string(), role)
+        .describe('Named rule lists with parameters, which nodes play through "use".')
+        .optional(),
       programs: z
         // Keys are checked against the declared nodes after validation, with a did-you-mean.
-        .record(mode === 'json' ? nodeId() : z.string(), obj({ rules: z.array(rule).describe('Tried in order after every event that touches the node.') }))
+        .record(mode === 'json' ? nodeId() : z.string(), program)
         .describe('The rules each node runs, keyed by node id.')
         .optional(),
     },

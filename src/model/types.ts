@@ -16,6 +16,18 @@ export interface SourcePos {
 export interface Expr {
   readonly compiled: Compiled;
   readonly pos: SourcePos;
+  /**
+   * Set when role parameters were substituted into the text (model/roles.ts): the text as
+   * written in the file, so that positions still point at it (`exprPos`).
+   */
+  readonly written?: WrittenText;
+}
+
+/** The text of an expression as written, and how substitution changed it. */
+export interface WrittenText {
+  readonly source: string;
+  /** Replacements in order: `[from, to)` of the written text became `text` at `at` in the compiled source. */
+  readonly edits: readonly { readonly from: number; readonly to: number; readonly at: number; readonly text: string }[];
 }
 
 export interface NodeDef {
@@ -185,7 +197,27 @@ export interface Rule {
   readonly index: number;
   readonly when: readonly Guard[];
   readonly do: readonly Step[];
+  /** Where the rule is written: in its role's list for a rule that came from a role. */
   readonly pos: SourcePos;
+  /** Present when a role made the rule for this node. */
+  readonly from?: RuleOrigin;
+}
+
+/** Where a rule that came from a role was written, and with what parameter values (FORMAT.md §1 "Roles"). */
+export interface RuleOrigin {
+  readonly role: string;
+  /** Index of the rule in the role's list. */
+  readonly index: number;
+  /** The node that plays the role. */
+  readonly node: string;
+  /** Parameter values in the role's order, as substituted (`s0`, `3`, `'near'`). */
+  readonly args: readonly (readonly [string, string])[];
+  /** Where the node's `use` entry for this role is. */
+  readonly usePos: SourcePos;
+  /** Index of that entry in the node's `use` list. */
+  readonly use: number;
+  /** `roles.repeater.rules[0] (at s8, left=s0 right=s16)`, as every message shows it. */
+  readonly text: string;
 }
 
 export interface Program {

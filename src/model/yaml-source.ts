@@ -37,6 +37,28 @@ function keyText(text: string, offset: number): string {
   return (m?.[1] ?? m?.[2] ?? m?.[3] ?? '').trim();
 }
 
+/** The path of the mapping holding the key that starts at `offset`, and the key. */
+function duplicateAt(node: unknown, offset: number, path: readonly PathPart[]): { path: Path; key: string } | undefined {
+  if (isMap(node)) {
+    for (const pair of node.items) {
+      if (!isScalar(pair.key)) continue;
+      const key = String(pair.key.value);
+      if (pair.key.range?.[0] === offset) return { path, key };
+      const inner = duplicateAt(pair.value, offset, [...path, key]);
+      if (inner) return inner;
+    }
+  } else if (isSeq(node)) {
+    for (let i = 0; i < node.items.length; i++) {
+      const inner = duplicateAt(node.items[i], offset, [...path, i]);
+      if (inner) return inner;
+    }
+  }
+  return undefined;
+}
+
+/** A message for a key written twice in one mapping, when the file kind knows better than "duplicate key". */
+export type DuplicateKeyHook = (doc: Document.Parsed, mapping: Path, key: string) => { message: string; fix: string } | undefined;
+
 /** A YAML document with its line index and its value as plain data. */
 export class SourceDoc {
   private constructor(
@@ -49,7 +71,7 @@ export class SourceDoc {
   ) {}
 
   /** Parses `text`; YAML syntax errors, an empty file, a non-mapping top level and forbidden keys throw. */
-  static parse(file: string, text: string): SourceDoc {
+  static parse(file: string, text: string, onDuplicate?: DuplicateKeyHook): SourceDoc {
     const lines = new LineCounter();
     const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true, version: '1.2' });
     const at = (offset: number): SourcePos => ({ file, ...lines.linePos(offset) });
@@ -59,10 +81,14 @@ export class SourceDoc {
         problems.map((e) => {
           const key = e.code === 'DUPLICATE_KEY' ? keyText(text, e.pos[0]) : '';
           const message = e.code === 'DUPLICATE_KEY' && key ? `duplicate key "${key}"` : `YAML: ${e.message}`;
+          const fix = YAML_FIXES[e.code] ?? 'check the YAML syntax here (indentation, quotes, brackets, a missing ":")';
+          const dup = e.code === 'DUPLICATE_KEY' ? duplicateAt(doc.contents, e.pos[0], []) : undefined;
+          const better = dup && onDuplicate?.(doc, dup.path, dup.key);
           return InputError.at(at(e.pos[0]), {
             code: e.code === 'DUPLICATE_KEY' ? 'duplicate' : 'yaml',
-            message,
-            fix: YAML_FIXES[e.code] ?? 'check the YAML syntax here (indentation, quotes, brackets, a missing ":")',
+            ...(dup ? { field: fieldName([...dup.path, dup.key]) } : {}),
+            message: better?.message ?? message,
+            fix: better?.fix ?? fix,
           });
         }),
       );

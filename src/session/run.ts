@@ -6,7 +6,7 @@
 import { evaluate, ExprError, formatValue, parseExpr } from '../expr/index.js';
 import type { Compiled, Value } from '../expr/types.js';
 import { InputError } from '../model/errors.js';
-import { quiescence, stallReport, type Engine, type EngineEvent, type World } from '../engine/index.js';
+import { ProgramError, quiescence, stallReport, type Engine, type EngineEvent, type World } from '../engine/index.js';
 import { formatDuration } from '../model/units.js';
 import { ALLOWED_CALLS, breakpointScanner, type Breakpoint } from './breakpoints.js';
 import { debugScope } from './debug-functions.js';
@@ -74,8 +74,19 @@ export function checkExpectations(engine: Engine, w: World, exps: readonly Expec
   });
 }
 
-/** Runs from the initial world of `opts.seed` (or from `from`) until a stop condition. */
+/**
+ * Runs from the initial world of `opts.seed` (or from `from`) until a stop condition. A
+ * program error comes out naming the role its rule came from, if any.
+ */
 export function runHeadless(engine: Engine, opts: RunOptions, from?: World): RunResult {
+  try {
+    return runToStop(engine, opts, from);
+  } catch (e) {
+    throw e instanceof ProgramError ? e.traced(engine.net.rules) : e;
+  }
+}
+
+function runToStop(engine: Engine, opts: RunOptions, from?: World): RunResult {
   let world = from ?? engine.initial(opts.seed);
   const limit = opts.maxEvents ?? (opts.untilNs === undefined ? DEFAULT_MAX_EVENTS : Infinity);
   const bps = (opts.breakpoints ?? []).filter((b) => b.enabled);

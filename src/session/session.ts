@@ -6,7 +6,7 @@
 import { explainNode, hasNext, quiescence, stallReport, type Engine, type EngineEvent, type RuleExplanation, type StallEntry, type World } from '../engine/index.js';
 import { evaluate, ExprError, formatValue } from '../expr/index.js';
 import type { Value } from '../expr/types.js';
-import { lint, type Finding } from '../model/index.js';
+import { findingRule, lint, type Finding, type RuleOrigin } from '../model/index.js';
 import { breakpointScanner, conditionHolds, parseBreakpoint, type Breakpoint, type Hit } from './breakpoints.js';
 import { debugScope } from './debug-functions.js';
 import { History, type HistoryOptions } from './history.js';
@@ -47,6 +47,10 @@ export interface RuleReport extends RuleExplanation {
   readonly lint: readonly string[];
   /** The rule fired in the event at the cursor. */
   readonly firedNow: boolean;
+  /** The line where the rule is written (in its role, for a rule a role made). */
+  readonly line: number;
+  /** Present when a role made the rule: the role, its values and the provenance text. */
+  readonly from?: RuleOrigin;
 }
 
 export class Session {
@@ -379,12 +383,9 @@ export class Session {
     const rules = this.engine.net.rules.get(node) ?? [];
     return explainNode(this.engine.net, w, node).map((e, i) => {
       const rule = rules[i];
-      const nextLine = rules[i + 1]?.pos.line ?? Infinity;
-      const lint = this.findings
-        .filter((f) => f.file === rule.pos.file && f.line >= rule.pos.line && f.line < nextLine)
-        .map((f) => f.message);
+      const lint = this.findings.filter((f) => findingRule(f) === rule).map((f) => f.message);
       const firedNow = ev?.fires.some((f) => f.node === node && f.rule === e.rule) ?? false;
-      return { ...e, lint, firedNow };
+      return { ...e, lint, firedNow, ...(rule.from ? { from: rule.from } : {}), line: rule.pos.line };
     });
   }
 

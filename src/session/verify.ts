@@ -3,7 +3,7 @@
  * recording; report the first divergent event. The engine is deterministic, so any
  * difference means the engine or its inputs changed.
  */
-import { Engine, quiescence, type World } from '../engine/index.js';
+import { Engine, ProgramError, quiescence, type World } from '../engine/index.js';
 import { loadInputs } from '../model/index.js';
 import { DigestChain, type ReplayEvent, type ReplayFile } from './replay.js';
 import { checkExpectations, parseExpectation } from './run.js';
@@ -59,6 +59,14 @@ function compare(rec: ReplayEvent, got: ReplayEvent): Divergence | null {
 /** Re-runs a parsed (already validated) replay and compares it event by event. */
 export function verifyReplay(r: ReplayFile): VerifyResult {
   const engine = engineFromReplay(r);
+  try {
+    return compareRun(engine, r);
+  } catch (e) {
+    throw e instanceof ProgramError ? e.traced(engine.net.rules) : e;
+  }
+}
+
+function compareRun(engine: Engine, r: ReplayFile): VerifyResult {
   let world: World = engine.initial(r.seed);
   const chain = new DigestChain();
   let divergence: Divergence | null = null;

@@ -112,7 +112,10 @@ export class Controller implements CommandTarget {
     try {
       fn();
     } catch (e) {
-      if (e instanceof ProgramError) this.say(['program error: ' + e.format().split('\n')[0], ...(e.fix ? [`fix: ${e.fix}`] : [])], 'bad');
+      if (e instanceof ProgramError) {
+        e.traced(this.session.engine.net.rules);
+        this.say(['program error: ' + e.format().split('\n')[0], ...(e.fix ? [`fix: ${e.fix}`] : [])], 'bad');
+      }
       else if (e instanceof BreakpointError) this.say([e.message, 'fix: disable or forget that breakpoint (list shows them)'], 'bad');
       else {
         this.crash(e instanceof Error ? e : new Error(String(e)));

@@ -11,8 +11,8 @@ import type { RunSummary } from '../../src/session/summary.js';
 /** The demos folder of this checkout. */
 export const DEMOS_DIR = fileURLToPath(new URL('../../demos/', import.meta.url));
 
-/** The five scenarios the demo command relies on, by folder name. */
-export const DEMO_NAMES = ['three-site-swap', 'two-site-purification', 'stalled-purification', 'lost-message', 'nested-repeater'] as const;
+/** The scenarios the demo command relies on, by folder name. */
+export const DEMO_NAMES = ['three-site-swap', 'two-site-purification', 'stalled-purification', 'lost-message', 'nested-repeater', 'long-chain'] as const;
 
 /** One demo folder: its file names and their text. */
 export interface Demo {

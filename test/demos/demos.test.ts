@@ -8,7 +8,7 @@ import { cliOn, idealNoise, loadDemo, meanFidelity, noiseNumber, runJson, withou
 
 const RUN = ['--until', '200ms'];
 
-describe.each(['three-site-swap', 'two-site-purification', 'stalled-purification', 'lost-message', 'nested-repeater'])('%s', (name) => {
+describe.each(['three-site-swap', 'two-site-purification', 'stalled-purification', 'lost-message', 'nested-repeater', 'long-chain'])('%s', (name) => {
   it('passes check with no findings', async () => {
     const r = await cliOn(loadDemo(name), 'check');
     expect(r.stderr).toBe('');

@@ -12,7 +12,7 @@ function titleAndSummary(readme: string): { title: string; summary: string[] } {
 }
 
 describe('demos/', () => {
-  it('holds the five bundled scenarios', () => {
+  it('holds the bundled scenarios', () => {
     expect(demoFolders()).toEqual(expect.arrayContaining([...DEMO_NAMES]));
   });
 

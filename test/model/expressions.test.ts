@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { parseExpr } from '../../src/expr/index.js';
-import { literalValue, offsetPos, staticNode } from '../../src/model/expressions.js';
+import { applyEdits, exprPos, literalValue, offsetPos, staticNode, substituteParams } from '../../src/model/expressions.js';
 import type { Expr } from '../../src/model/types.js';
 
 const at = { file: 'n.yaml', line: 4, col: 10 };
@@ -34,5 +34,31 @@ describe('literalValue and offsetPos', () => {
   it('maps an offset on one line to a column, and past a newline to a later line', () => {
     expect(offsetPos(at, 'a + b', 4)).toEqual({ file: 'n.yaml', line: 4, col: 14 });
     expect(offsetPos(at, 'a +\n  b', 6)).toEqual({ file: 'n.yaml', line: 5, col: 3 });
+  });
+});
+
+describe('role parameters put into expression text', () => {
+  const written = 'x.far == left && right + 1 > left';
+  const args = new Map([['left', 'north'], ['right', '(-2)']]);
+  const w = substituteParams(written, [parseExpr(written).ast], args)!;
+  const text = applyEdits(w);
+  const sub: Expr = { compiled: parseExpr(text), pos: at, written: w };
+
+  it('replaces the names that are parameters, and nothing else (not fields, not other names)', () => {
+    expect(text).toBe('x.far == north && (-2) + 1 > north');
+    expect(substituteParams('x.left + y', [parseExpr('x.left + y').ast], args)).toBeUndefined();
+  });
+
+  it('maps positions in the new text back to the text as written', () => {
+    const col = (source: string, needle: string, nth = 0) => at.col + source.split(needle, nth + 1).join(needle).length;
+    // before any replacement: unchanged
+    expect(exprPos(sub, 0)).toEqual({ ...at, col: at.col });
+    // inside a value: the parameter's own position
+    expect(exprPos(sub, text.indexOf('north') + 2).col).toBe(col(written, 'left'));
+    expect(exprPos(sub, text.indexOf('(-2)') + 1).col).toBe(col(written, 'right'));
+    // after replacements of other lengths: the same token as written
+    expect(exprPos(sub, text.indexOf('+ 1')).col).toBe(col(written, '+ 1'));
+    expect(exprPos(sub, text.lastIndexOf('north')).col).toBe(col(written, 'left', 1));
+    expect(exprPos(sub, text.length).col).toBe(at.col + written.length);
   });
 });

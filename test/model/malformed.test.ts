@@ -88,6 +88,11 @@ const CASES: Case[] = [
   { name: 'expression syntax error', net: rule('      - {name: g, when: [{check: "1 = 2"}], do: []}\n'), says: 'in expression "1 = 2"', at: '= 2' },
   { name: 'broken log template', net: edit(NET, 'bits {zbit}{xbit}', 'bits {zbit +}'), says: 'in expression', at: 'bits {zbit +|}' },
   { name: 'misspelt node in an expression', net: edit(NET, 'far: quay', 'far: qay'), says: 'unknown name "qay" (did you mean "quay"?)', at: 'qay' },
+  // roles
+  { name: 'a node playing an unknown role', net: edit(NET, '  quay:\n    rules:\n', '  quay:\n    use: [relya]\n    rules:\n'), says: 'unknown role "relya" (at quay)', at: 'relya' },
+  { name: 'a role without rules', net: edit(NET, 'programs:', 'roles:\n  relay: {params: [far]}\nprograms:'), says: 'missing required field "rules"', at: '{params' },
+  { name: 'a use entry of the wrong shape', net: edit(NET, '  quay:\n    rules:\n', '  quay:\n    use: [{rol: relay}]\n    rules:\n'), says: 'unknown field "rol" (did you mean "role"?)', at: 'rol:' },
+  { name: 'a role parameter named like a node id', net: edit(NET, 'programs:', 'roles:\n  relay:\n    params: [ridge]\n    rules: [{name: r, when: [{check: true}], do: []}]\nprograms:'), says: 'parameter "ridge" of role "relay" is named like a node id', at: '[|ridge]' },
   // noise models
   { name: 'noise without a seed', noise: edit(NOISE, 'seed: 20261201\n', ''), says: 'missing required field "seed"', in: 'noise' },
   { name: 'negative seed', noise: edit(NOISE, 'seed: 20261201', 'seed: -4'), says: 'must be at least 0, got -4', at: '-4', in: 'noise' },

@@ -31,7 +31,7 @@ function textReport(s: RunSummary): string {
   if (s.stall) {
     lines.push('', 'stalled; waiting rules:');
     for (const [node, entries] of Object.entries(s.stall)) {
-      for (const e of entries) lines.push(`  ${node}.${e.rule}: ${e.reason}`);
+      for (const e of entries) lines.push(`  ${node}.${e.rule}${e.from ? ` from ${e.from}` : ''}: ${e.reason}`);
     }
   }
   if (s.expectations.length) lines.push('', 'expectations:', ...describeExpectations(s.expectations).map((l) => `  ${l}`));

@@ -95,9 +95,12 @@ export function sweepSuite(name: string, r: SweepReport, hints: OpenHints, ms: R
   const cases: JunitCase[] = r.failures.map((g) => {
     const outcome = outcomeOf(r, g);
     const crashed = g.signature.startsWith('crash |');
+    const names = g.seeds.map(replayName).join(', ');
     const replays = crashed
       ? 'replays: none (the worker running these seeds died)'
-      : `replays${hints.saveDir === undefined ? ' (in the --save-failures folder of the job that ran each seed)' : ''}: ${g.seeds.map(replayName).join(', ')}${hints.notSaved ? '\n(this job ran without --save-failures, so it wrote none; run it again with that flag)' : ''}`;
+      : hints.notSaved
+        ? `replays: none written by this job; with --save-failures DIR it writes ${names}`
+        : `replays (in ${hints.saveDir === undefined ? 'the --save-failures folder of the job that ran each seed' : `the --save-failures folder ${hints.saveDir}`}): ${names}`;
     const text = [`seeds (${g.count}): ${g.seeds.join(', ')}`, replays, `open the first: ${openCommand(r, g, hints)}`, `signature: ${g.signature}`].join('\n');
     const problem = { type: outcome, message: g.explanation, text };
     const base = { name: g.signature, classname: 'bellstep.sweep', seconds: secs(g.seeds) };

@@ -12,7 +12,7 @@ export const mergeCommand: CommandSpec = {
   args: '<SWEEP.json...>',
   summary: 'join the sweep files of the shards of one sweep into the file of the whole range',
   options: [
-    { flags: '--json', description: 'print the merged sweep as JSON (FORMAT.md §8), the same bytes one whole sweep gives' },
+    { flags: '--json', description: 'print the merged sweep file as JSON: the same bytes one sweep over the whole range gives' },
     { flags: '--junit <OUT.xml>', description: 'write a JUnit report: one failing case per signature, one passing case for the rest' },
   ],
   async run({ io }, paths, opts) {

@@ -38,7 +38,7 @@ export const sweepCommand: CommandSpec = {
     { flags: '--break <EXPR>', description: 'stop a run when this breakpoint hits (repeatable)', repeatable: true },
     { flags: '--expect <EXPR>', description: 'check this expression at the end of each run; a seed fails if it is false (repeatable)', repeatable: true },
     { flags: '--save-failures <DIR>', description: 'write DIR/seed-S.replay.json for every failing seed' },
-    { flags: '--json', description: 'print the sweep as JSON (FORMAT.md §8)' },
+    { flags: '--json', description: 'print the sweep file (bellstep/sweep@1) as JSON on stdout' },
     { flags: '--junit <OUT.xml>', description: 'write a JUnit report: one failing case per signature, one passing case for the rest' },
   ],
   async run({ io }, [netPath], opts) {

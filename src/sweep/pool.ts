@@ -32,6 +32,8 @@ export interface PoolOptions<T, R> {
   crashed(task: T, message: string): R;
   /** Called as each result comes in (in completion order), e.g. for progress. */
   onResult?(task: T, result: R): void;
+  /** What to keep of a result once `onResult` has seen it, e.g. without its bulky parts. */
+  keep?(result: R): R;
 }
 
 // A worker written in TypeScript cannot be loaded by node itself: under the tests and tsx a
@@ -76,9 +78,9 @@ export function runPool<T, R>(tasks: readonly T[], opts: PoolOptions<T, R>): Pro
     };
 
     const record = (index: number, result: R) => {
-      results[index] = result;
       done++;
       opts.onResult?.(tasks[index], result);
+      results[index] = opts.keep ? opts.keep(result) : result;
       if (done === tasks.length) finish();
     };
 

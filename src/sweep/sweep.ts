@@ -59,6 +59,8 @@ export async function runSweep(job: SweepJob, opts: SweepOptions): Promise<Sweep
       return { run: { seed, outcome: 'error', events: 0, time_ns: 0, delivered: 0, fidelity_mean: null, signature: d.signature }, explanation: d.explanation, ms: 0 };
     },
     onResult: (_seed, result) => opts.onSeed?.(result),
+    // a replay can be megabytes: onSeed has written it, so the sweep need not hold them all
+    keep: ({ replay: _written, ...rest }) => rest,
   });
   for (const r of results) {
     ms.set(r.run.seed, r.ms);

@@ -1,7 +1,9 @@
 /**
  * Sweep throughput, as a ratio measured in one run: seeds per second with 2 worker threads
  * against 1 (goal ≥ 1.6×). Each sweep includes starting its workers, as a user's does; the
- * seeds are long enough (tens of milliseconds each) that the runs, not the start, dominate.
+ * seeds are long enough (a hundred milliseconds or more each) that the runs, not the start,
+ * dominate. The two are measured in turn, twice, and the faster of each pair counts, so a
+ * burst of other work on a shared machine does not fall on one side only.
  */
 import { runSweep } from '../../src/sweep/sweep.js';
 import type { SweepJob } from '../../src/sweep/types.js';
@@ -18,7 +20,7 @@ const JOB: SweepJob = {
   expects: ['delivered() >= 1'],
   recordFailures: false,
 };
-const SEEDS = { from: 1, to: 48 };
+const SEEDS = { from: 1, to: 32 };
 
 async function seedsPerSecond(workers: number): Promise<{ rate: number; ms: number; bytes: string }> {
   const t0 = process.hrtime.bigint();
@@ -29,8 +31,11 @@ async function seedsPerSecond(workers: number): Promise<{ rate: number; ms: numb
 
 export default async function sweepBench(): Promise<BenchLine[]> {
   await seedsPerSecond(2); // warm the file cache and the JIT of the main thread
-  const one = await seedsPerSecond(1);
-  const two = await seedsPerSecond(2);
+  const best = (a: Awaited<ReturnType<typeof seedsPerSecond>>, b: Awaited<ReturnType<typeof seedsPerSecond>>) => (a.rate >= b.rate ? a : b);
+  let one = await seedsPerSecond(1);
+  let two = await seedsPerSecond(2);
+  one = best(one, await seedsPerSecond(1));
+  two = best(two, await seedsPerSecond(2));
   if (one.bytes !== two.bytes) throw new Error('the sweep gave different results with 1 and 2 workers');
   const ratio = two.rate / one.rate;
   return [

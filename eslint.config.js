@@ -5,12 +5,15 @@ import tseslint from 'typescript-eslint';
 
 /** Which folders under src/ each layer must not import from. */
 const forbidden = {
-  quantum: ['expr', 'model', 'engine', 'session', 'tui', 'cli'],
-  expr: ['quantum', 'model', 'engine', 'session', 'tui', 'cli'],
-  model: ['engine', 'session', 'tui', 'cli'],
-  engine: ['session', 'tui', 'cli'],
-  session: ['tui', 'cli'],
-  tui: ['cli'],
+  quantum: ['expr', 'model', 'engine', 'session', 'sweep', 'report', 'tui', 'cli'],
+  expr: ['quantum', 'model', 'engine', 'session', 'sweep', 'report', 'tui', 'cli'],
+  model: ['engine', 'session', 'sweep', 'report', 'tui', 'cli'],
+  engine: ['session', 'sweep', 'report', 'tui', 'cli'],
+  session: ['sweep', 'report', 'tui', 'cli'],
+  // sweep and report sit side by side above session; cli joins them
+  sweep: ['report', 'tui', 'cli'],
+  report: ['sweep', 'tui', 'cli'],
+  tui: ['sweep', 'cli'],
 };
 
 const layerRules = Object.entries(forbidden).map(([layer, banned]) => ({

@@ -37,6 +37,17 @@ describe('README', () => {
     for (const c of TUI_COMMANDS) expect(readme, c.word).toContain(`\`${c.word}`);
   });
 
+  it('runs the sweep example and prints the lines it quotes', async () => {
+    const cmd = /```\n(npx bellstep sweep demos\/two-site-purification\/.+)\n```/.exec(readme)![1];
+    const argv = [...cmd.matchAll(/"([^"]*)"|(\S+)/g)].map((m) => m[1] ?? m[2]).slice(2);
+    const files = Object.fromEntries(argv.filter((a) => a.endsWith('.yaml')).map((p) => [p, readFileSync(p, 'utf8')]));
+    const r = await runCli(argv, files);
+    expect(r.code).toBe(1);
+    const quoted = /It exits 1, and ends with:\n\n```\n([\s\S]*?)```/.exec(readme)![1].split('\n').filter((l) => l && l !== '...');
+    for (const line of quoted) expect(r.stdout).toContain(line);
+    expect(r.files.has('failures/seed-10.replay.json')).toBe(true);
+  });
+
   it('runs the walkthrough’s headless command and finds the reason it quotes', async () => {
     const cmd = /```\n(npx bellstep run demos\/stalled-purification\/\S+ --noise \S+)\n```/.exec(readme)![1];
     const argv = cmd.split(' ').slice(2);

@@ -9,6 +9,8 @@ export interface CliIo {
   writeFile(path: string, text: string): void;
   /** True when stdout is a terminal (progress goes to stderr otherwise). */
   readonly stdoutIsTTY: boolean;
+  /** True when stderr is a terminal (a sweep draws its progress bar there). */
+  readonly stderrIsTTY: boolean;
   /** True when stdin is a terminal (the debugger needs one). */
   readonly stdinIsTTY: boolean;
   readonly env: Readonly<Record<string, string | undefined>>;
@@ -25,6 +27,7 @@ export function processIo(): CliIo {
       writeFileSync(p, t);
     },
     stdoutIsTTY: process.stdout.isTTY === true,
+    stderrIsTTY: process.stderr.isTTY === true,
     stdinIsTTY: process.stdin.isTTY === true,
     env: process.env,
   };

@@ -12,6 +12,7 @@ const modules: Record<string, () => Promise<{ default: () => Promise<BenchLine[]
   'debugger frame': () => import('./render.bench.js'),
   'engine': () => import('./engine.bench.js'),
   'session': () => import('./session.bench.js'),
+  'sweep': () => import('./sweep.bench.js'),
 };
 
 const child = process.argv.indexOf('--child');

@@ -8,6 +8,7 @@ import type { CliIo } from '../../src/cli/io.js';
 export interface MemoryIoOptions {
   readonly stdoutIsTTY?: boolean;
   readonly stdinIsTTY?: boolean;
+  readonly stderrIsTTY?: boolean;
   readonly env?: Readonly<Record<string, string | undefined>>;
 }
 
@@ -43,6 +44,7 @@ export function memoryIo(files: Record<string, string> = {}, opts: MemoryIoOptio
     writeFile: (p, t) => void store.set(p, t),
     stdoutIsTTY: opts.stdoutIsTTY ?? false,
     stdinIsTTY: opts.stdinIsTTY ?? false,
+    stderrIsTTY: opts.stderrIsTTY ?? false,
     env: opts.env ?? {},
     stdoutText: () => out.join(''),
     stderrText: () => err.join(''),

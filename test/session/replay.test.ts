@@ -62,7 +62,7 @@ describe('replay files', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('verified: all 400 events match the recording');
     const xml = r.files.get('out.xml')!;
-    expect(xml).toContain('<testsuite name="bellstep replay x.replay.json" tests="2" failures="0">');
+    expect(xml).toContain('<testsuite name="bellstep replay x.replay.json" tests="2" failures="0" errors="0"');
     expect(xml).toContain('name="delivered() &gt;= 1"');
   });
 

@@ -6,5 +6,7 @@ import { checkCommand } from './check.js';
 import { schemaCommand } from './schema.js';
 import { debugCommand } from './debug.js';
 import { demoCommand } from './demo.js';
+import { sweepCommand } from './sweep.js';
+import { mergeCommand } from './merge.js';
 
-export const COMMANDS: CommandSpec[] = [debugCommand, runCommand, replayCommand, checkCommand, schemaCommand, demoCommand];
+export const COMMANDS: CommandSpec[] = [debugCommand, runCommand, replayCommand, checkCommand, sweepCommand, mergeCommand, schemaCommand, demoCommand];

@@ -3,29 +3,41 @@ import { formatValue } from '../../expr/index.js';
 import { formatDuration } from '../../model/units.js';
 import { parseReplay, type ReplayFile } from '../../session/replay.js';
 import { verifyReplay, type VerifyResult } from '../../session/verify.js';
+import { performance } from 'node:perf_hooks';
+import { junitXml, type JunitCase } from '../../report/junit.js';
 import { readInput } from '../inputs.js';
+import { checkFileOutput, checkNotInput, writeOutput } from '../outputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
-function xml(s: string): string {
-  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
-
-/** A JUnit report: one test case for the verify and one per expectation. */
-export function junitReport(name: string, r: VerifyResult): string {
-  const cases: string[] = [];
-  const verify = r.divergence
-    ? `<failure message="${xml(r.divergence.message)}">${xml(r.divergence.message)}</failure>`
-    : '';
-  cases.push(`    <testcase classname="bellstep.replay" name="verify: ${r.checked} events match the recording">${verify}</testcase>`);
-  for (const e of r.expectations) {
-    const fail = e.ok ? '' : `<failure message="${xml(`${e.expr} was ${formatValue(e.value)}`)}">${xml(`expected ${e.expr} to hold; value ${formatValue(e.value)}`)}</failure>`;
-    cases.push(`    <testcase classname="bellstep.expect" name="${xml(e.expr)}">${fail}</testcase>`);
+/** A JUnit report of a verify: one test case for the re-run and one per expectation. */
+export function junitReport(name: string, r: ReplayFile, v: VerifyResult, seconds: number, started: Date): string {
+  const cases: JunitCase[] = [];
+  const verify: JunitCase = { name: `verify: ${v.checked} of ${r.events.length} events match the recording`, classname: 'bellstep.replay', seconds };
+  cases.push(v.divergence ? { ...verify, failure: { type: 'divergence', message: v.divergence.message, text: v.divergence.message } } : verify);
+  for (const e of v.expectations) {
+    const value = formatValue(e.value);
+    cases.push({
+      name: e.expr,
+      classname: 'bellstep.expect',
+      seconds: 0,
+      failure: e.ok ? undefined : { type: 'expectation', message: `${e.expr} was ${value}`, text: `expected ${e.expr} to hold; value ${value}` },
+    });
   }
-  const failures = (r.divergence ? 1 : 0) + r.expectations.filter((e) => !e.ok).length;
-  return (
-    `<?xml version="1.0" encoding="UTF-8"?>\n<testsuites>\n  <testsuite name="${xml(name)}" tests="${cases.length}" failures="${failures}">\n` +
-    `${cases.join('\n')}\n  </testsuite>\n</testsuites>\n`
-  );
+  return junitXml([
+    {
+      name,
+      package: 'bellstep.replay',
+      cases,
+      seconds,
+      timestamp: started,
+      properties: [
+        ['seed', String(r.seed)],
+        ['program_set_sha256', r.inputs.program_set.sha256],
+        ['noise_sha256', r.inputs.noise?.sha256 ?? 'none (ideal)'],
+        ['stop', `${r.stop.reason}: ${r.stop.detail}`],
+      ],
+    },
+  ]);
 }
 
 function describe(r: ReplayFile): string {
@@ -54,8 +66,15 @@ export const replayCommand: CommandSpec = {
       io.stdout(opts.json ? `${JSON.stringify({ format: replay.format, seed: replay.seed, events: replay.events.length, stop: replay.stop }, null, 2)}\n` : describe(replay));
       return EXIT.ok;
     }
+    const junit = opts.junit === undefined ? undefined : String(opts.junit);
+    if (junit !== undefined) {
+      checkNotInput(junit, '--junit', [path]);
+      checkFileOutput(io, junit, '--junit');
+    }
+    const started = new Date();
+    const t0 = performance.now();
     const result = verifyReplay(replay);
-    if (opts.junit) io.writeFile(String(opts.junit), junitReport(`bellstep replay ${path}`, result));
+    if (junit !== undefined) writeOutput(io, junit, junitReport(`bellstep replay ${path}`, replay, result, (performance.now() - t0) / 1000, started), '--junit');
     if (opts.json) {
       io.stdout(`${JSON.stringify({ format: 'bellstep/verify@1', ...result }, null, 2)}\n`);
     } else {

@@ -1,0 +1,52 @@
+/**
+ * The worker entry from compiled code: bellstep installed from npm runs dist/, where the
+ * pool must find worker.js beside it, while the other tests run the .ts sources through tsx.
+ * This test compiles the current sources to a temporary folder (types stripped by esbuild,
+ * one file at a time, laid out as tsc lays out dist/: a quick stand-in for the build), runs the compiled CLI as a child process, and checks
+ * that it prints the same bytes as the in-process sweep from the sources.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, relative, resolve } from 'node:path';
+import { transformSync } from 'esbuild';
+import { afterAll, describe, expect, it } from 'vitest';
+import { runCli } from '../helpers/run-cli.js';
+import { LOSSY_NET, LOSSY_NOISE } from './scenarios.js';
+
+const ROOT = resolve(import.meta.dirname, '../..');
+const out = mkdtempSync(join(tmpdir(), 'bellstep-compiled-'));
+afterAll(() => rmSync(out, { recursive: true, force: true }));
+
+function compileTree(dir: string): number {
+  let n = 0;
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const path = join(dir, entry.name);
+    if (entry.isDirectory()) n += compileTree(path);
+    else if (/\.tsx?$/.test(entry.name)) {
+      const { code } = transformSync(readFileSync(path, 'utf8'), { loader: path.endsWith('x') ? 'tsx' : 'ts', format: 'esm', target: 'es2022', jsx: 'automatic', sourcefile: path });
+      const target = join(out, relative(join(ROOT, 'src'), path)).replace(/\.tsx?$/, '.js');
+      mkdirSync(dirname(target), { recursive: true });
+      writeFileSync(target, code);
+      n++;
+    }
+  }
+  return n;
+}
+
+describe('sweep from compiled code', () => {
+  it('finds worker.js beside the compiled pool and prints the same bytes as from the sources', async () => {
+    expect(compileTree(join(ROOT, 'src'))).toBeGreaterThan(50);
+    writeFileSync(join(out, 'package.json'), '{"type": "module"}\n');
+    symlinkSync(join(ROOT, 'node_modules'), join(out, 'node_modules'), 'dir');
+    writeFileSync(join(out, 'lossy.net.yaml'), LOSSY_NET);
+    writeFileSync(join(out, 'lossy.noise.yaml'), LOSSY_NOISE);
+    const argv = ['sweep', 'lossy.net.yaml', '--noise', 'lossy.noise.yaml', '--until', '3ms', '--seeds', '1..6', '--workers', '2', '--json'];
+    const compiled = spawnSync(process.execPath, [join(out, 'cli/bin.js'), ...argv], { cwd: out, encoding: 'utf8', env: { ...process.env, NODE_OPTIONS: '' } });
+    expect(compiled.stderr).not.toContain('Error');
+    expect(compiled.status).toBe(1);
+    const fromSources = await runCli(argv, { 'lossy.net.yaml': LOSSY_NET, 'lossy.noise.yaml': LOSSY_NOISE });
+    expect(compiled.stdout).toBe(fromSources.stdout);
+    expect(JSON.parse(compiled.stdout).runs).toHaveLength(6);
+  });
+});

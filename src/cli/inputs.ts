@@ -3,16 +3,55 @@ import { InputError } from '../model/errors.js';
 import { loadInputs } from '../model/index.js';
 import type { NoiseModel, ProgramSet } from '../model/types.js';
 import { parseDuration } from '../model/units.js';
-import type { CliIo } from './io.js';
+import type { CliIo, PathKind } from './io.js';
 
-/** Reads a file, turning a missing or unreadable file into an input error that names it. */
-export function readInput(io: CliIo, path: string, what: string): string {
+/** The kinds of file the commands read, each with the largest size it may have (documented in docs/cli.md). */
+export const INPUT_LIMITS = {
+  'program set': 16 * 1024 * 1024,
+  'noise model': 16 * 1024 * 1024,
+  'replay file': 256 * 1024 * 1024,
+  'sweep file': 64 * 1024 * 1024,
+} as const;
+
+/** A kind of input file. */
+export type InputKind = keyof typeof INPUT_LIMITS;
+
+/** `16 MiB`, `256 MiB`: a byte count as the limits are documented. */
+export function mebibytes(bytes: number): string {
+  return `${Math.round((bytes / 1024 / 1024) * 10) / 10} MiB`;
+}
+
+const KIND_WORDS: Partial<Record<PathKind, string>> = {
+  directory: 'a directory',
+  fifo: 'a named pipe (FIFO)',
+  device: 'a device',
+  socket: 'a socket',
+  other: 'not a regular file',
+};
+
+function fileError(path: string, what: string, why: string, fix = `check the path of the ${what}`): InputError {
+  return new InputError({ code: 'file', file: path, message: `cannot read the ${what}: ${why}`, fix });
+}
+
+/**
+ * Reads an input file. It must be a regular file within the size of its kind: a directory,
+ * a device, a pipe or a file that is too large is an input error before anything is read.
+ */
+export function readInput(io: CliIo, path: string, what: InputKind): string {
+  const limit = INPUT_LIMITS[what];
+  const info = io.stat(path);
+  if (info.kind === 'missing') throw fileError(path, what, 'no such file');
+  if (info.kind !== 'file') throw fileError(path, what, `${path} is ${KIND_WORDS[info.kind]}`, `give the path of a ${what} file; bellstep reads regular files only`);
+  const tooLarge = () => fileError(path, what, `it is larger than ${mebibytes(limit)}, the most a ${what} may be`, `a ${what} holds at most ${mebibytes(limit)}; check that this is the right file`);
+  if (info.size > limit) throw tooLarge();
   try {
-    return io.readFile(path);
+    return io.readFile(path, limit);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
-    throw new InputError({ code: 'file', file: path, message: `cannot read the ${what}: ${why}`, fix: `check the path of the ${what}` });
+    if (code === 'EFBIG') throw tooLarge();
+    if (code === 'ENOTREG') throw fileError(path, what, `${path} is not a regular file`, `give the path of a ${what} file; bellstep reads regular files only`);
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : code === 'EACCES' || code === 'EPERM' ? 'permission denied' : String((e as Error).message);
+    throw fileError(path, what, why);
   }
 }
 

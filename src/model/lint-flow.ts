@@ -25,8 +25,11 @@ function reaches(s: SendFact, g: GotFact, kind = g.guard.msgKind): boolean {
 /** Message kinds: every statically addressed send needs a got there, every got a sender. */
 export function lintMessages(facts: Facts): Finding[] {
   const out: Finding[] = [];
-  const unawaited = facts.sends.filter((s) => s.to !== undefined && !facts.gots.some((g) => awaits(g, s)));
-  const unsent = facts.gots.filter((g) => !facts.sends.some((s) => reaches(s, g)));
+  // indexed by kind: large networks have thousands of each
+  const gotsByKind = groupBy(facts.gots, (g) => g.guard.msgKind);
+  const sendsByKind = groupBy(facts.sends, (s) => s.step.msgKind);
+  const unawaited = facts.sends.filter((s) => s.to !== undefined && !(gotsByKind.get(s.step.msgKind) ?? []).some((g) => awaits(g, s)));
+  const unsent = facts.gots.filter((g) => !(sendsByKind.get(g.guard.msgKind) ?? []).some((s) => reaches(s, g)));
   const explained = new Set<SendFact>();
   for (const g of unsent) {
     const near = unawaited
@@ -61,7 +64,7 @@ export function lintMessages(facts: Facts): Finding[] {
   }
   for (const s of unawaited) {
     if (explained.has(s)) continue;
-    const others = facts.gots.filter((g) => g.node === s.to && g.guard.msgKind === s.step.msgKind);
+    const others = (gotsByKind.get(s.step.msgKind) ?? []).filter((g) => g.node === s.to);
     const why = others.length > 0 ? ` (its got guards for "${s.step.msgKind}" accept only messages from ${others.map((g) => g.from).join(', ')})` : '';
     out.push(
       finding(
@@ -76,9 +79,16 @@ export function lintMessages(facts: Facts): Finding[] {
   return out;
 }
 
-/** The stages a node's rules move pairs into; `link` is where generated pairs start. */
-function enteredStages(facts: Facts, node: string): Set<string> {
-  return new Set(['link', ...facts.stages.filter((s) => s.node === node).map((s) => s.step.to)]);
+/** Items grouped by a key, in their order. */
+function groupBy<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
+  const out = new Map<string, T[]>();
+  for (const it of items) {
+    const k = key(it);
+    const list = out.get(k);
+    if (list) list.push(it);
+    else out.set(k, [it]);
+  }
+  return out;
 }
 
 function haveStage(h: HaveFact): string | undefined {
@@ -89,13 +99,17 @@ function haveStage(h: HaveFact): string | undefined {
 export function lintStages(facts: Facts): Finding[] {
   const out: Finding[] = [];
   const nodes = new Set([...facts.stages.map((s) => s.node), ...facts.haves.map((h) => h.node)]);
+  const havesAt = groupBy(facts.haves, (h) => h.node);
+  const stagesAt = groupBy(facts.stages, (s) => s.node);
   for (const node of nodes) {
-    const haves = facts.haves.filter((h) => h.node === node);
+    const haves = havesAt.get(node) ?? [];
+    const steps = stagesAt.get(node) ?? [];
     // A have by id without a stage takes a pair in any stage, so every stage is matched.
     const matchesAny = haves.some((h) => h.guard.kind === 'have-id' && h.guard.stage === undefined);
     const matched = new Set(haves.map(haveStage).filter((s): s is string => s !== undefined));
-    const entered = enteredStages(facts, node);
-    const unmatched = matchesAny ? [] : facts.stages.filter((s) => s.node === node && !matched.has(s.step.to));
+    // the stages a node's rules move pairs into; `link` is where generated pairs start
+    const entered = new Set(['link', ...steps.map((s) => s.step.to)]);
+    const unmatched = matchesAny ? [] : steps.filter((s) => !matched.has(s.step.to));
     const unentered = haves.filter((h) => {
       const st = haveStage(h);
       return st !== undefined && !entered.has(st);

@@ -25,20 +25,31 @@ class Graph {
     return this.byPair.get(a < b ? `${a}~${b}` : `${b}~${a}`);
   }
 
+  private components?: Map<string, number>;
+
+  /** Whether fiber joins the two nodes: both in one connected component, labelled once. */
   reachable(from: string, to: string): boolean {
-    const seen = new Set([from]);
-    const queue = [from];
-    while (queue.length > 0) {
-      const n = queue.shift() as string;
-      if (n === to) return true;
-      for (const m of this.adjacent.get(n) ?? []) {
-        if (!seen.has(m)) {
-          seen.add(m);
-          queue.push(m);
+    if (!this.components) {
+      const label = new Map<string, number>();
+      let next = 0;
+      for (const start of this.adjacent.keys()) {
+        if (label.has(start)) continue;
+        const c = next++;
+        label.set(start, c);
+        const stack = [start];
+        while (stack.length > 0) {
+          for (const m of this.adjacent.get(stack.pop() as string) ?? []) {
+            if (!label.has(m)) {
+              label.set(m, c);
+              stack.push(m);
+            }
+          }
         }
       }
+      this.components = label;
     }
-    return false;
+    const a = this.components.get(from);
+    return a !== undefined && a === this.components.get(to);
   }
 }
 

@@ -32,12 +32,13 @@ function buildNodes(ctx: FileCtx, raw: RawProgramSet): NodeDef[] {
 
 function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[]): LinkDef[] {
   const ids = nodes.map((n) => n.id);
+  const idSet = new Set(ids);
   const links: LinkDef[] = [];
   const seen = new Map<string, number>();
   (raw.links ?? []).forEach((l, i) => {
     let ok = true;
     l.ends.forEach((end, j) => {
-      if (!ids.includes(end)) {
+      if (!idSet.has(end)) {
         ok = false;
         ctx.error(['links', i, 'ends', j], { code: 'reference', message: `unknown node "${end}"${didYouMean(end, ids)}`, fix: 'declare it under "nodes", or fix the spelling' });
       }
@@ -58,8 +59,16 @@ function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[])
     const ends = [l.ends[0], l.ends[1]].sort() as [string, string];
     links.push({ id, ends, lengthM, slots: l.slots, pos: ctx.pos(['links', i]) });
   });
+  const byNode = new Map<string, LinkDef[]>();
+  for (const l of links) {
+    for (const end of l.ends) {
+      const list = byNode.get(end);
+      if (list) list.push(l);
+      else byNode.set(end, [l]);
+    }
+  }
   nodes.forEach((n, i) => {
-    const mine = links.filter((l) => l.ends.includes(n.id));
+    const mine = byNode.get(n.id) ?? [];
     const reserved = mine.reduce((s, l) => s + l.slots, 0);
     if (reserved > n.qubits) {
       const detail = mine.map((l) => `${l.slots} for ${l.id}`).join(', ');
@@ -80,7 +89,7 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef
   const roles = checkRoles(ctx, raw, nodeIds);
   const programs: Record<string, Program> = {};
   for (const [node, prog] of Object.entries(raw.programs ?? {})) {
-    if (!ids.includes(node)) {
+    if (!nodeIds.has(node)) {
       ctx.error(['programs'], { code: 'reference', message: `unknown node "${node}"${didYouMean(node, ids)}`, fix: 'programs are keyed by node ids declared under "nodes"' }, node);
       continue;
     }

@@ -2,13 +2,69 @@
  * A parsed YAML file that still knows where everything came from: values are read from
  * plain JavaScript, positions from the YAML syntax tree, both addressed by the same path.
  */
-import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type Scalar } from 'yaml';
+import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type Pair, type Scalar, type YAMLMap } from 'yaml';
 import { InputError, InputErrors } from './errors.js';
 import type { SourcePos } from './types.js';
 
 /** One step of a path into a YAML value: a mapping key or a list index. */
 export type PathPart = string | number;
 export type Path = readonly PathPart[];
+
+/**
+ * The most marks that start YAML entries (`:` `-` `,` `[` `{`, counted anywhere in the text)
+ * a file may hold. Parsing keeps a syntax tree with positions, about a kilobyte per entry,
+ * so a file within the size limit but made of tiny entries could exhaust memory; this bound
+ * keeps a parse under a few hundred megabytes, far beyond any real network.
+ */
+export const MAX_YAML_MARKS = 400_000;
+/** The deepest nesting of lists and mappings a file may have (real files nest about 12 deep). */
+export const MAX_YAML_DEPTH = 64;
+
+/** Counts the marks of MAX_YAML_MARKS, stopping once past `limit`. */
+function countMarks(text: string, limit: number): number {
+  let n = 0;
+  for (let i = 0; i < text.length && n <= limit; i++) {
+    const c = text.charCodeAt(i);
+    // : - , [ {
+    if (c === 58 || c === 45 || c === 44 || c === 91 || c === 123) n++;
+  }
+  return n;
+}
+
+/** The first collection nested deeper than `max`, found without recursion. */
+function tooDeep(root: unknown, max: number): Node | undefined {
+  const stack: [unknown, number][] = [[root, 0]];
+  while (stack.length > 0) {
+    const [node, depth] = stack.pop()!;
+    if (isMap(node) || isSeq(node)) {
+      if (depth > max) return node as Node;
+      for (const item of node.items) {
+        if (isPair(item)) stack.push([item.value, depth + 1]);
+        else stack.push([item, depth + 1]);
+      }
+    }
+  }
+  return undefined;
+}
+
+// Positions are looked up by path many times per rule; a mapping with thousands of keys
+// (programs of a large network) would make each lookup a long scan without an index.
+const keyIndex = new WeakMap<YAMLMap, Map<string, Pair>>();
+
+/** The entry of a mapping with this key (the first, should a key be written twice). */
+function pairIn(map: YAMLMap, key: string): Pair | undefined {
+  let index = keyIndex.get(map);
+  if (!index) {
+    index = new Map();
+    for (const p of map.items) {
+      if (!isPair(p) || !isScalar(p.key)) continue;
+      const k = String(p.key.value);
+      if (!index.has(k)) index.set(k, p as Pair);
+    }
+    keyIndex.set(map, index);
+  }
+  return index.get(key);
+}
 
 /** Keys that could reach JavaScript object internals if they ever became property names. */
 const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
@@ -72,6 +128,19 @@ export class SourceDoc {
 
   /** Parses `text`; YAML syntax errors, an empty file, a non-mapping top level and forbidden keys throw. */
   static parse(file: string, text: string, onDuplicate?: DuplicateKeyHook): SourceDoc {
+    const marks = countMarks(text, MAX_YAML_MARKS);
+    if (marks > MAX_YAML_MARKS) {
+      throw new InputErrors([
+        new InputError({
+          code: 'yaml',
+          file,
+          line: 1,
+          col: 1,
+          message: `the file has more than ${MAX_YAML_MARKS.toLocaleString('en-US')} YAML entries (marks ":", "-", ",", "[" and "{"), more than bellstep loads`,
+          fix: 'check that this is the right file; a network this large is better written with roles, which state shared rules once',
+        }),
+      ]);
+    }
     const lines = new LineCounter();
     const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true, version: '1.2' });
     const at = (offset: number): SourcePos => ({ file, ...lines.linePos(offset) });
@@ -84,6 +153,10 @@ export class SourceDoc {
           const fix = YAML_FIXES[e.code] ?? 'check the YAML syntax here (indentation, quotes, brackets, a missing ":")';
           const dup = e.code === 'DUPLICATE_KEY' ? duplicateAt(doc.contents, e.pos[0], []) : undefined;
           const better = dup && onDuplicate?.(doc, dup.path, dup.key);
+          // the parser's own recursion gives out on very deep nesting
+          if (/call stack/i.test(e.message)) {
+            return InputError.at(at(e.pos[0]), { code: 'yaml', message: `the file is nested too deeply to read (more than ${MAX_YAML_DEPTH} levels of lists and mappings)`, fix: 'flatten it; no bellstep file needs deep nesting' });
+          }
           return InputError.at(at(e.pos[0]), {
             code: e.code === 'DUPLICATE_KEY' ? 'duplicate' : 'yaml',
             ...(dup ? { field: fieldName([...dup.path, dup.key]) } : {}),
@@ -105,6 +178,16 @@ export class SourceDoc {
           code: 'format',
           message: `expected a mapping of keys (format, ...) at the top of the file, got ${got}`,
           fix: 'write the file as "key: value" lines starting with "format:"',
+        }),
+      ]);
+    }
+    const deep = tooDeep(doc.contents, MAX_YAML_DEPTH);
+    if (deep) {
+      throw new InputErrors([
+        InputError.at(at(deep.range?.[0] ?? 0), {
+          code: 'yaml',
+          message: `nested more than ${MAX_YAML_DEPTH} levels of lists and mappings deep`,
+          fix: 'flatten it; no bellstep file needs deep nesting (an "if" inside an "if" inside ... can be one "if" with "&&")',
         }),
       ]);
     }
@@ -165,7 +248,7 @@ export class SourceDoc {
     for (const part of path) {
       let next: Node | undefined;
       if (isMap(node)) {
-        const pair = node.items.find((p) => isPair(p) && isScalar(p.key) && String(p.key.value) === String(part));
+        const pair = pairIn(node as YAMLMap, String(part));
         // A key with no value ("name:") has no value node: point at the key.
         if (pair) next = (pair.value as Node | null) ?? (pair.key as Node);
       } else if (isSeq(node) && typeof part === 'number') {
@@ -186,7 +269,7 @@ export class SourceDoc {
   keyPosAt(path: Path, key: string): SourcePos {
     const { node, exact } = this.nodeAt(path);
     if (exact && isMap(node)) {
-      const pair = node.items.find((p) => isScalar(p.key) && String(p.key.value) === key);
+      const pair = pairIn(node as YAMLMap, key);
       const k = pair?.key as Node | undefined;
       if (k?.range) return this.at(k.range[0]);
     }

@@ -9,6 +9,7 @@ import { parseReplay } from '../../session/replay.js';
 import { Session } from '../../session/session.js';
 import { engineFromReplay } from '../../session/verify.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
+import { checkOutput, writeOutput } from '../outputs.js';
 import type { CliIo } from '../io.js';
 import { loadFiles, many, parseCount, parseSeed, readInput } from '../inputs.js';
 import { HISTORY_DEFAULTS, type HistoryOptions } from '../../session/history.js';
@@ -25,6 +26,8 @@ export interface OpenOptions {
   readonly runHint: string;
   /** History bounds from --window and --history-mb. */
   readonly history?: HistoryOptions;
+  /** The files the debugger was opened on, which `save` must never overwrite. */
+  readonly inputs?: readonly (string | undefined)[];
 }
 
 /** Parses --window and --history-mb into history bounds (defaults in session/history.ts). */
@@ -56,6 +59,14 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
   return env[key] !== undefined && env[key] !== '0' && env[key] !== 'false';
 }
 
+/** How the debugger's `save FILE` writes: with the checks of every output, never over one of its inputs. */
+export function saveWriter(io: CliIo, inputs: readonly (string | undefined)[]): (path: string, text: string) => void {
+  return (path, text) => {
+    checkOutput(io, path, 'save', inputs, 'stall.replay.json');
+    writeOutput(io, path, text, 'save');
+  };
+}
+
 /** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
 export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
   // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
@@ -74,7 +85,7 @@ export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions)
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
   if (opts.at !== undefined) session.goto(opts.at + 1);
-  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t) });
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: saveWriter(io, opts.inputs ?? []) });
   onCrashSaveReplay((why) => {
     const path = crashReplayPath(io);
     io.writeFile(path, session.exportReplay({ reason: 'events', detail: `automatic replay after an internal error in the debugger: ${why}` }));
@@ -119,7 +130,7 @@ export const debugCommand: CommandSpec = {
       if (at !== undefined && at >= replay.events.length) {
         throw new InputError({ code: 'usage', field: '--at', message: `the replay holds events 0 to ${replay.events.length - 1}, not ${at}`, fix: `write --at ${Math.max(0, replay.events.length - 1)} or less` });
       }
-      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts) });
+      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts), inputs: [path, netPath] });
     }
     if (netPath === undefined) {
       throw new InputError({ code: 'usage', field: 'NET.yaml', message: 'debug needs a program set or --replay', fix: 'write e.g. bellstep debug swap.net.yaml --noise swap.noise.yaml' });
@@ -128,6 +139,6 @@ export const debugCommand: CommandSpec = {
     const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
     const engine = new Engine(programSet, noise);
     const hint = ['bellstep run', netPath, ...(opts.noise ? ['--noise', String(opts.noise)] : []), ...(seedFlag !== undefined ? ['--seed', String(seedFlag)] : []), ...breaks.map((b) => `--break "${b}"`)].join(' ');
-    return openDebugger(io, engine, { breaks, autoplay, runHint: hint, history: parseHistory(opts) });
+    return openDebugger(io, engine, { breaks, autoplay, runHint: hint, history: parseHistory(opts), inputs: [netPath, opts.noise as string | undefined] });
   },
 };

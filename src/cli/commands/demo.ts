@@ -109,6 +109,6 @@ export const demoCommand: CommandSpec = {
       seed,
     });
     const hint = `bellstep run ${demo.net}${demo.noise ? ` --noise ${demo.noise}` : ''}`;
-    return openDebugger(io, new Engine(programSet, noise), { breaks: [], autoplay, runHint: hint });
+    return openDebugger(io, new Engine(programSet, noise), { breaks: [], autoplay, runHint: hint, inputs: [demo.net, demo.noise] });
   },
 };

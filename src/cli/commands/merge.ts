@@ -3,7 +3,7 @@ import { junitXml } from '../../report/junit.js';
 import { mergeSweeps, parseSweepFile, type NamedSweep } from '../../sweep/merge.js';
 import { serializeSweep } from '../../sweep/report.js';
 import { readInput } from '../inputs.js';
-import { checkFileOutput, checkNotInput, writeOutput } from '../outputs.js';
+import { checkOutput, writeOutput } from '../outputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 import { sweepSuite, sweepText } from '../sweep-output.js';
 
@@ -17,10 +17,7 @@ export const mergeCommand: CommandSpec = {
   ],
   async run({ io }, paths, opts) {
     const junit = opts.junit === undefined ? undefined : String(opts.junit);
-    if (junit !== undefined) {
-      checkNotInput(junit, '--junit', paths);
-      checkFileOutput(io, junit, '--junit');
-    }
+    if (junit !== undefined) checkOutput(io, junit, '--junit', paths, 'report.xml');
     const files: NamedSweep[] = paths.map((p) => ({ name: p, report: parseSweepFile(readInput(io, p, 'sweep file'), p) }));
     const started = new Date();
     const report = mergeSweeps(files);

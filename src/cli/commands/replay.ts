@@ -6,7 +6,7 @@ import { verifyReplay, type VerifyResult } from '../../session/verify.js';
 import { performance } from 'node:perf_hooks';
 import { junitXml, type JunitCase } from '../../report/junit.js';
 import { readInput } from '../inputs.js';
-import { checkFileOutput, checkNotInput, writeOutput } from '../outputs.js';
+import { checkOutput, writeOutput } from '../outputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 /** A JUnit report of a verify: one test case for the re-run and one per expectation. */
@@ -67,10 +67,7 @@ export const replayCommand: CommandSpec = {
       return EXIT.ok;
     }
     const junit = opts.junit === undefined ? undefined : String(opts.junit);
-    if (junit !== undefined) {
-      checkNotInput(junit, '--junit', [path]);
-      checkFileOutput(io, junit, '--junit');
-    }
+    if (junit !== undefined) checkOutput(io, junit, '--junit', [path], 'report.xml');
     const started = new Date();
     const t0 = performance.now();
     const result = verifyReplay(replay);

@@ -7,6 +7,7 @@ import type { RunSummary } from '../../session/summary.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import { loadFiles, many, parseCount, parseDurationFlag, parseSeed } from '../inputs.js';
+import { checkOutput, writeOutput } from '../outputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 function textReport(s: RunSummary): string {
@@ -56,12 +57,15 @@ export const runCommand: CommandSpec = {
     const seedFlag = parseSeed(opts.seed);
     const untilNs = parseDurationFlag(opts.until, '--until');
     const maxEvents = parseCount(opts.events, '--events');
+    const record = opts.record === undefined ? undefined : String(opts.record);
+    // refused before anything runs: a replay written over its own program set would lose it
+    if (record !== undefined) checkOutput(io, record, '--record', [netPath, opts.noise as string | undefined], 'run.replay.json');
     const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
     const engine = new Engine(programSet, noise);
     const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
     const expectations = many(opts.expect).map(parseExpectation);
     const seed = noise.seed;
-    const recorder = opts.record ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
+    const recorder = record !== undefined ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
     // an internal error saves a replay of the run so far: the recording if there is one, else
     // a fresh recording of the events that completed (the engine is deterministic)
     let completed = 0;
@@ -104,9 +108,9 @@ export const runCommand: CommandSpec = {
     });
     if (io.stdoutIsTTY && lastProgress !== started) io.stdout('\r\x1b[K');
     onCrashSaveReplay(undefined);
-    if (recorder) {
-      io.writeFile(String(opts.record), recorder.finish(result.stop));
-      io.stderr(`replay written to ${String(opts.record)}\n`);
+    if (recorder && record !== undefined) {
+      writeOutput(io, record, recorder.finish(result.stop), '--record');
+      io.stderr(`replay written to ${record}\n`);
     }
     const s = result.summary;
     io.stdout(opts.json ? `${JSON.stringify(s, null, 2)}\n` : textReport(s));

@@ -9,7 +9,7 @@ import { parseSeedRange, parseShard, shardSize } from '../../sweep/seeds.js';
 import { runSweep } from '../../sweep/sweep.js';
 import type { SweepJob } from '../../sweep/types.js';
 import { loadFiles, many, parseCount, parseDurationFlag } from '../inputs.js';
-import { checkFileOutput, checkFolderOutput, checkNotInput, writeOutput } from '../outputs.js';
+import { checkFolderOutput, checkNotInput, checkOutput, writeOutput } from '../outputs.js';
 import { SweepProgress } from '../progress.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 import { replayName, sweepSuite, sweepText, type OpenHints } from '../sweep-output.js';
@@ -64,12 +64,9 @@ export const sweepCommand: CommandSpec = {
     };
     // breakpoints and expectations are checked here, once, so a mistake is exit 2 before any worker starts
     prepareJob(job);
-    if (junit !== undefined) {
-      checkNotInput(junit, '--junit', [netPath, noisePath]);
-      checkFileOutput(io, junit, '--junit');
-    }
+    if (junit !== undefined) checkOutput(io, junit, '--junit', [netPath, noisePath], 'report.xml');
     if (saveDir !== undefined) {
-      checkNotInput(saveDir, '--save-failures', [netPath, noisePath]);
+      checkNotInput(saveDir, '--save-failures', [netPath, noisePath], io);
       checkFolderOutput(io, saveDir, '--save-failures');
     }
 

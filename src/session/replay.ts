@@ -168,6 +168,89 @@ function bad(message: string, fix: string, file?: string): InputError {
   return new InputError({ code: 'replay', file, message, fix });
 }
 
+const TOP_KEYS: readonly string[] = ['format', 'tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'stop', 'events', 'checksum'];
+const INPUT_KEYS: readonly string[] = ['file', 'text', 'sha256'];
+
+/** Stop reasons a `bellstep/replay@1` file may hold. */
+const STOP_REASONS: readonly string[] = ['until', 'events', 'idle', 'stall', 'breakpoint', 'crash'];
+
+/**
+ * Checks that a parsed `bellstep/replay@1` object has the shape of one, field by field,
+ * before anything (the checksum included) walks it: a null event, a string where a list
+ * belongs or arrays nested thousands deep are refused here with the field that is wrong.
+ * Extra keys are left alone: the checksum covers them.
+ */
+export function validateReplayShape(raw: unknown, file?: string): ReplayFile {
+  const fix = 'use the replay file as bellstep wrote it; record the run again if it was edited';
+  const kind = (v: unknown): string =>
+    v === null ? 'null' : Array.isArray(v) ? 'a list' : typeof v === 'object' ? 'an object' : typeof v === 'string' ? `text ${JSON.stringify(v.length > 40 ? `${v.slice(0, 40)}…` : v)}` : `${typeof v} ${String(v)}`;
+  const wrong = (field: string, want: string, got: unknown): never => {
+    throw new InputError({ code: 'replay', file, field, message: `expected ${want}, got ${kind(got)}`, fix });
+  };
+  const isObject = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object' && !Array.isArray(v);
+  const object = (v: unknown, field: string): Record<string, unknown> => (isObject(v) ? v : wrong(field, 'an object', v));
+  const at = (field: string, key: string): string => (field ? `${field}.${key}` : key);
+  const text = (o: Record<string, unknown>, key: string, field: string): void => {
+    if (!Object.hasOwn(o, key)) throw new InputError({ code: 'replay', file, field: at(field, key), message: `missing "${key}" (the file is truncated or was edited)`, fix });
+    if (typeof o[key] !== 'string') wrong(at(field, key), 'text', o[key]);
+  };
+  // a key bellstep never writes is refused too, so nothing unchecked (say, lists nested
+  // thousands deep) reaches the checksum, which walks the whole object
+  const only = (o: Record<string, unknown>, keys: readonly string[], field: string): void => {
+    for (const k of Object.keys(o)) {
+      if (!keys.includes(k)) throw new InputError({ code: 'replay', file, field: at(field, k), message: `unknown field "${k}" in a ${REPLAY_FORMAT} file`, fix });
+    }
+  };
+  const count = (v: unknown, field: string): void => {
+    if (typeof v !== 'number' || !Number.isSafeInteger(v) || v < 0) wrong(field, 'a whole number of at least 0', v);
+  };
+  const input = (v: unknown, field: string): void => {
+    const o = object(v, field);
+    for (const k of INPUT_KEYS) text(o, k, field);
+    only(o, INPUT_KEYS, field);
+  };
+  const strings = (v: unknown, field: string): void => {
+    if (!Array.isArray(v)) return wrong(field, 'a list of texts', v);
+    v.forEach((x, i) => typeof x === 'string' || wrong(`${field}[${i}]`, 'text', x));
+  };
+
+  const r = object(raw, '(top level)');
+  for (const key of TOP_KEYS) {
+    if (!Object.hasOwn(r, key)) throw new InputError({ code: 'replay', file, field: key, message: `the replay file has no "${key}" (truncated or edited by hand)`, fix });
+  }
+  only(r, TOP_KEYS, '');
+  text(r, 'format', '');
+  const tool = object(r.tool, 'tool');
+  text(tool, 'name', 'tool');
+  text(tool, 'version', 'tool');
+  only(tool, ['name', 'version'], 'tool');
+  const inputs = object(r.inputs, 'inputs');
+  if (!Object.hasOwn(inputs, 'noise')) throw new InputError({ code: 'replay', file, field: 'inputs.noise', message: 'missing "noise" (null when the run had no noise model)', fix });
+  only(inputs, ['program_set', 'noise'], 'inputs');
+  input(inputs.program_set, 'inputs.program_set');
+  if (inputs.noise !== null) input(inputs.noise, 'inputs.noise');
+  count(r.seed, 'seed');
+  strings(r.breakpoints, 'breakpoints');
+  strings(r.expectations, 'expectations');
+  const stop = object(r.stop, 'stop');
+  text(stop, 'reason', 'stop');
+  text(stop, 'detail', 'stop');
+  only(stop, ['reason', 'detail'], 'stop');
+  if (!STOP_REASONS.includes(stop.reason as string)) wrong('stop.reason', `one of ${STOP_REASONS.join(', ')}`, stop.reason);
+  if (!Array.isArray(r.events)) wrong('events', 'a list of events', r.events);
+  const events = r.events as unknown[];
+  for (let i = 0; i < events.length; i++) {
+    const field = `events[${i}]`;
+    const e = object(events[i], field);
+    count(e.index, `${field}.index`);
+    count(e.time_ns, `${field}.time_ns`);
+    for (const k of ['node', 'kind', 'summary', 'digest']) text(e, k, field);
+    only(e, EVENT_KEYS, field);
+  }
+  text(r, 'checksum', '');
+  return r as unknown as ReplayFile;
+}
+
 /** Parses and validates a replay file; refuses foreign, truncated, newer or tampered files (exit 2). */
 export function parseReplay(text: string, file?: string): ReplayFile {
   let raw: unknown;
@@ -194,13 +277,7 @@ export function parseReplay(text: string, file?: string): ReplayFile {
       file,
     );
   }
-  for (const key of ['tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'stop', 'events', 'checksum'] as const) {
-    if (!(key in r)) throw bad(`the replay file has no "${key}" (truncated or edited by hand)`, 'use the complete file as written by bellstep', file);
-  }
-  if (!Array.isArray(r.events) || typeof r.checksum !== 'string' || !r.inputs?.program_set) {
-    throw bad('the replay file has the wrong shape', 'use the file as written by bellstep', file);
-  }
-  const full = r as ReplayFile;
+  const full = validateReplayShape(raw, file);
   if (replayChecksum(full) !== full.checksum) {
     throw bad('checksum mismatch: the replay file was changed after it was written', 'record the run again; do not edit replay files by hand', file);
   }

@@ -39,6 +39,8 @@ function resignedDeep(base: Record<string, unknown>, change: (r: Record<string, 
 }
 
 describe('replay files of the wrong shape', () => {
+  // the changes reach into the parsed JSON freely, as a hand edit would
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
   const cases: [string, (r: Record<string, any>) => void, string][] = [
     ['a null event', (r) => (r.events[3] = null), 'events[3]'],
     ['lists nested 5,000 deep', (r) => (r.breakpoints = 'deep lists'), 'breakpoints'],

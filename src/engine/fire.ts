@@ -86,7 +86,8 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   w.qubits[rec.qubit].frozen = true;
   release(ctx, name, rec);
   push(ctx.ev, 'delivers', { node: ctx.node, pair: rec.id });
-  const other = w.halves[rec.id];
+  // own entries only: a pair id chosen by a program may be a name every object has ("toString")
+  const other = Object.hasOwn(w.halves, rec.id) ? w.halves[rec.id] : undefined;
   if (!other || other.node === ctx.node) {
     w.halves[rec.id] = { node: ctx.node, qubit: rec.qubit, time: t };
     if (ctx.detail) ctx.fire.actions.push(`delivered its half of ${shortPairId(rec.id)}`);
@@ -217,6 +218,7 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         if (step.id) {
           const id = value(ctx, step.id);
           if (typeof id !== 'string') fail(ctx, step, `id "${step.id.compiled.source}" gave ${JSON.stringify(id)}, not a pair id`);
+          if (id === '__proto__') fail(ctx, step, `id "${step.id.compiled.source}" gave "__proto__", which cannot be a pair id`, 'give the pair an id of your own, e.g. join(a.id, m.pair)');
           rec.id = id;
         }
         if (ctx.detail) ctx.fire.actions.push(`${shortPairId(before)} is now ${shortPairId(rec.id)} with ${rec.partner}`);

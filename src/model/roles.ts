@@ -12,6 +12,7 @@ import type { RuleBuild } from './build-guards.js';
 import { ExprCompiler } from './expressions.js';
 import type { FileCtx } from './file-ctx.js';
 import { argText, originText } from './role-args.js';
+import { RESERVED_NAMES } from './zod-kit.js';
 import { LABEL_RE, type RawProgramSet, type RawRole, type RawUse } from './schema-program.js';
 import { closest, didYouMean, listWords } from './suggest.js';
 import type { Rule, RuleOrigin } from './types.js';
@@ -81,6 +82,8 @@ export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySe
     const before = ctx.errors.length;
     if (!LABEL_RE.test(name)) {
       ctx.error(['roles'], { code: 'schema', message: `"${name}" is not a role name`, fix: 'use letters, digits, "_" and "-", starting with a letter, e.g. "repeater"' }, name);
+    } else if (RESERVED_NAMES.has(name)) {
+      ctx.error(['roles'], { code: 'schema', message: `"${name}" is a reserved name and cannot be a role name`, fix: 'pick another name, e.g. "repeater"' }, name);
     }
     const params = role.params ?? [];
     const usedBy = usedByText(users.get(name));

@@ -149,11 +149,21 @@ export const probability = (what = 'A probability') =>
     .max(1, { error: (iss) => encodeIssue({ m: `a probability must be between 0 and 1, got ${describeValue(iss.input)}`, f: PROBABILITY_FIX }) })
     .describe(`${what}, between 0 and 1.`);
 
-/** A name matching `re`, described for messages. */
+/**
+ * Names every JavaScript object already has (`toString`, `constructor`, `__proto__`, ...).
+ * Node ids, rule names and the other names a file chooses become keys of records, where
+ * such a name would read the built-in instead of nothing; they are refused as names.
+ */
+export const RESERVED_NAMES: ReadonlySet<string> = new Set([...Object.getOwnPropertyNames(Object.prototype), 'prototype', 'this']);
+
+/** A name matching `re` and not a reserved name, described for messages. */
 export function word(re: RegExp, what: string, example: string) {
   return z
     .string({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected ${what}, got ${describeValue(iss.input)}`, f: `write ${what}, e.g. ${example}` })) })
     .regex(re, { error: (iss) => encodeIssue({ m: `${describeValue(iss.input)} is not ${what}`, f: `use ${what}, e.g. ${example}` }) })
+    .refine((v) => !RESERVED_NAMES.has(v), {
+      error: (iss) => encodeIssue({ m: `${describeValue(iss.input)} is a reserved name and cannot be ${what}`, f: `pick another name, e.g. ${example}` }),
+    })
     .describe(`${what[0].toUpperCase()}${what.slice(1)}, e.g. ${example}.`);
 }
 

@@ -92,6 +92,8 @@ export function lex(source: string, start = 0, end = source.length): Token[] {
       const text = source.slice(from, i);
       const value = Number(text);
       if (!Number.isFinite(value)) fail(`number "${text}" is too large`, from, i - from);
+      // "1e-400" would silently be 0: a number too small to hold is as wrong as one too large
+      if (value === 0 && /[1-9]/.test(text.replace(/[eE].*$/, ''))) fail(`number "${text}" is too small: it rounds to 0`, from, i - from);
       tokens.push({ kind: 'number', text, value, start: from, end: i });
       continue;
     }

@@ -53,5 +53,22 @@ export function crossCheck(ps: ProgramSet, noise: NoiseModel): void {
       );
     }
   });
+  // The slowest message crosses every fiber of the network; its arrival must stay a whole
+  // number of nanoseconds that a double holds exactly.
+  const fiber = ps.links.reduce((sum, l) => sum + l.lengthM, 0);
+  const c = noise.defaults.classical;
+  const delays = noise.faults.reduce((sum, f) => sum + (f.kind === 'delay' ? f.byNs : 0), 0);
+  const worst = (fiber / c.speedMPerS) * 1e9 + c.extraDelayNs + delays;
+  if (!(worst <= Number.MAX_SAFE_INTEGER)) {
+    const path = ['defaults', 'classical', 'speed'];
+    errors.push(
+      InputError.at(at(path), {
+        code: 'unit',
+        field: fieldName(path),
+        message: `at this speed a message across the network's ${fiber / 1000} km of fiber would take longer than the simulation can count (about 104 days)`,
+        fix: 'give a faster speed, e.g. "200000 km/s" (light in fiber)',
+      }),
+    );
+  }
   if (errors.length > 0) throw new InputErrors(sortErrors(errors));
 }

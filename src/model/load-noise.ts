@@ -88,9 +88,23 @@ class NoiseBuilder {
     return { pair: pair ?? base.pair, success: success ?? base.success, attemptPeriod: attemptPeriod ?? base.attemptPeriod };
   }
 
+  /** A decay time: a duration of more than 0 (leaving the key out means no such decay). */
+  private decayTime(path: Path, text: string | undefined): number | undefined {
+    const ns = this.duration(path, text);
+    if (ns === 0) {
+      this.ctx.error(path, {
+        code: 'unit',
+        message: `a decay time of ${text} would destroy a qubit at once`,
+        fix: 'give a time of more than 0, or leave the key out for a memory without that decay',
+      });
+      return undefined;
+    }
+    return ns;
+  }
+
   memory(path: Path, raw: RawMemory | undefined, base: MemoryNoise, whose: string): MemoryNoise {
-    const t1Ns = this.duration([...path, 't1'], raw?.t1) ?? base.t1Ns;
-    const t2Ns = this.duration([...path, 't2'], raw?.t2) ?? base.t2Ns;
+    const t1Ns = this.decayTime([...path, 't1'], raw?.t1) ?? base.t1Ns;
+    const t2Ns = this.decayTime([...path, 't2'], raw?.t2) ?? base.t2Ns;
     // Checked after merging: a node's T2 may conflict with the default T1.
     if (t1Ns !== undefined && t2Ns !== undefined && t2Ns > 2 * t1Ns) {
       this.ctx.error(raw?.t2 !== undefined ? [...path, 't2'] : path, {
@@ -119,8 +133,14 @@ class NoiseBuilder {
 
   classical(raw: NonNullable<RawNoise['defaults']>['classical']): ClassicalNoise {
     const p = ['defaults', 'classical'];
+    let speed = raw?.speed === undefined ? IDEAL_CLASSICAL.speedMPerS : this.ctx.unit([...p, 'speed'], raw.speed, parseSpeed);
+    if (speed === 0) {
+      // nothing would ever arrive, and every herald would wait for ever
+      this.ctx.error([...p, 'speed'], { code: 'unit', message: `a speed of ${raw?.speed} would never deliver a message or a herald`, fix: 'give a speed of more than 0, e.g. "200000 km/s" (light in fiber)' });
+      speed = undefined;
+    }
     return {
-      speedMPerS: raw?.speed === undefined ? IDEAL_CLASSICAL.speedMPerS : (this.ctx.unit([...p, 'speed'], raw.speed, parseSpeed) ?? 0),
+      speedMPerS: speed ?? IDEAL_CLASSICAL.speedMPerS,
       loss: raw?.loss ?? 0,
       extraDelayNs: this.duration([...p, 'extra_delay'], raw?.extra_delay) ?? 0,
     };

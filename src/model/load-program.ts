@@ -54,6 +54,11 @@ function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[])
       ctx.error(['links', i], { code: 'duplicate', message: `duplicate link ${id} (first declared at line ${ctx.pos(['links', first]).line})`, fix: 'declare each link once; raise its "slots" for more parallel pairs' });
     }
     const lengthM = ctx.unit(['links', i, 'length'], l.length, parseLength);
+    if (lengthM === 0) {
+      // a herald and every attempt would take no time: events would pile up at one instant
+      ctx.error(['links', i, 'length'], { code: 'unit', message: `a link of length ${l.length} has no fiber to time its heralds and messages`, fix: 'give a length of more than 0, e.g. "1 m" for two nodes in one room' });
+      return;
+    }
     if (!ok || lengthM === undefined) return;
     seen.set(id, i);
     const ends = [l.ends[0], l.ends[1]].sort() as [string, string];

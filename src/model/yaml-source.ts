@@ -192,6 +192,7 @@ export class SourceDoc {
       ]);
     }
     SourceDoc.refuseForbiddenKeys(doc, at);
+    SourceDoc.refuseUnholdableNumbers(doc, text, at);
     let value: unknown;
     try {
       value = doc.toJS({ maxAliasCount: 100 });
@@ -231,6 +232,25 @@ export class SourceDoc {
               fix: 'write the key as a name',
             }),
           );
+        }
+      },
+    });
+    if (errors.length > 0) throw new InputErrors(errors);
+  }
+
+  /** Numbers written with digits that a double cannot hold: "1e-400" (it would be 0) or "1e400". */
+  private static refuseUnholdableNumbers(doc: Document.Parsed, text: string, at: (offset: number) => SourcePos): void {
+    const errors: InputError[] = [];
+    visit(doc, {
+      Scalar(_, node) {
+        if (typeof node.value !== 'number' || !node.range) return;
+        const written = text.slice(node.range[0], node.range[1]).trim();
+        const mantissa = written.replace(/[eE].*$/, '');
+        let why: string | undefined;
+        if (node.value === 0 && /[1-9]/.test(mantissa)) why = 'too small: it rounds to 0';
+        else if (!Number.isFinite(node.value) && /[0-9]/.test(written)) why = 'too large to hold';
+        if (why) {
+          errors.push(InputError.at(at(node.range[0]), { code: 'schema', message: `the number ${written} is ${why}`, fix: 'write a number between about 1e-300 and 1e300 (or 0)' }));
         }
       },
     });

@@ -1,6 +1,7 @@
 /** Turns a parsed expression into nested closures once, so that repeated evaluation is cheap. */
 import { compileBinary, compileUnary, truth, type Run } from './compile-ops.js';
 import { evalError, ExprError, snippet } from './errors.js';
+import { arityProblem, functionSpec } from './library.js';
 import { closest, listSome } from './suggest.js';
 import type { Compiled, ExprFunction, ExprNode, Scope, Value } from './types.js';
 import { describeValue, isRecord, kindOf } from './values.js';
@@ -117,6 +118,14 @@ function buildIndex(node: Extract<ExprNode, { type: 'index' }>, object: Run, ind
 
 function buildCall(node: Extract<ExprNode, { type: 'call' }>, args: readonly Run[], source: string): Run {
   const { callee } = node;
+  // a tree made by hand (not by the parser) gets the same check of its arguments
+  const spec = functionSpec(callee);
+  const wrong = spec && arityProblem(spec, args.length);
+  if (wrong) {
+    return () => {
+      throw evalError(source, node, wrong);
+    };
+  }
   // Scopes usually share one functions table, so remember the last lookup.
   let lastTable: unknown;
   let lastFn: ExprFunction | undefined;

@@ -2,10 +2,6 @@
 import type { ExprFunction, Value } from './types.js';
 import { describeValue } from './values.js';
 
-function arity(name: string, args: readonly Value[], n: number): void {
-  if (args.length !== n) throw new Error(`${name} takes ${n} argument${n === 1 ? '' : 's'}, got ${args.length}`);
-}
-
 function bit(name: string, v: Value): number {
   if (v === 0 || v === false) return 0;
   if (v === 1 || v === true) return 1;
@@ -26,17 +22,12 @@ function extreme(name: string, args: readonly Value[], pick: (a: number, b: numb
   return best;
 }
 
-const one = (name: string, f: (x: number) => number): ExprFunction => (args) => {
-  arity(name, args, 1);
-  return f(number(name, args[0]));
-};
+// the number of arguments is checked against the table of functions (library.ts) before a call
+const one = (name: string, f: (x: number) => number): ExprFunction => (args) => f(number(name, args[0]));
 
 /** `xor(a, b)`, `min(...)`, `max(...)`, `abs(x)`, `floor(x)`, `round(x)`; the engine and session add their own. */
 export const baseFunctions: Readonly<Record<string, ExprFunction>> = Object.freeze({
-  xor: (args: readonly Value[]) => {
-    arity('xor', args, 2);
-    return bit('xor', args[0]) ^ bit('xor', args[1]);
-  },
+  xor: (args: readonly Value[]) => bit('xor', args[0]) ^ bit('xor', args[1]),
   min: (args: readonly Value[]) => extreme('min', args, Math.min),
   max: (args: readonly Value[]) => extreme('max', args, Math.max),
   abs: one('abs', Math.abs),

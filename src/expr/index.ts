@@ -9,3 +9,4 @@ export { baseFunctions } from './functions.js';
 export { makeScope } from './scope.js';
 export { formatValue, valuesEqual } from './values.js';
 export { closest, editDistance } from './suggest.js';
+export { FUNCTIONS, CONSTANTS, functionSpec, functionNames, arity, arityProblem, signature, type FunctionSpec, type ParamSpec, type ArgKind, type FunctionScope } from './library.js';

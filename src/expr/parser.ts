@@ -2,6 +2,7 @@
 import { ExprError, lineColOf } from './errors.js';
 import { lex, type Token } from './lexer.js';
 import { compileExpr } from './compile.js';
+import { arityProblem, CONSTANTS, functionSpec } from './library.js';
 import type { Compiled, ExprNode } from './types.js';
 
 type BinaryOp = Extract<ExprNode, { type: 'binary' }>['op'];
@@ -190,6 +191,8 @@ class Parser {
     if (t.kind === 'name') {
       if (t.text === 'true' || t.text === 'false') return this.made({ type: 'literal', value: t.text === 'true', start: t.start, end: t.end });
       if (t.text === 'null') return this.made({ type: 'literal', value: null, start: t.start, end: t.end });
+      const constant = CONSTANTS.find((k) => k.name === t.text);
+      if (constant && !this.isPunct('(')) return this.made({ type: 'literal', value: constant.value, start: t.start, end: t.end });
       if (FORBIDDEN.has(t.text)) this.fail(`name "${t.text}" is not allowed in expressions`, t);
       if (this.isPunct('(')) return this.parseCall(t);
       this.names.add(t.text);
@@ -219,6 +222,10 @@ class Parser {
       }
     }
     const close = this.expect(')', open);
+    // the number of arguments is part of the language, so it is checked here, wherever the call is
+    const spec = functionSpec(callee.text);
+    const wrong = spec && arityProblem(spec, args.length);
+    if (wrong) throw new ExprError('parse', wrong, this.source, callee.start, close.end - callee.start);
     this.calls.add(callee.text);
     return this.made({ type: 'call', callee: callee.text, args, start: callee.start, end: close.end }, ...args);
   }

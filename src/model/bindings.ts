@@ -3,6 +3,7 @@
  * and in steps names bound by earlier steps of the same block (an `if` branch sees its
  * own bindings, which end with the branch).
  */
+import { CONSTANTS } from '../expr/index.js';
 import { InputError } from './errors.js';
 import { namePos } from './expressions.js';
 import { didYouMean } from './suggest.js';
@@ -28,7 +29,7 @@ export interface RoleParams {
   readonly usedBy: string;
 }
 
-const RESERVED = new Set(['true', 'false', 'null']);
+const RESERVED = new Set(['true', 'false', 'null', ...CONSTANTS.map((c) => c.name)]);
 const KIND_WORDS: Record<BindingKind, string> = { pair: 'a pair', message: 'a message', bit: 'a measured bit' };
 
 /** Nested name scopes of one rule, reporting misuse into a shared error list. */
@@ -89,7 +90,7 @@ export class RuleScope {
       return;
     }
     if (RESERVED.has(b.name)) {
-      this.errors.push(InputError.at(b.pos, { code: 'reference', field, message: `"${b.name}" is a literal and cannot be bound`, fix: 'pick another name' }));
+      this.errors.push(InputError.at(b.pos, { code: 'reference', field, message: `"${b.name}" is a ${CONSTANTS.some((c) => c.name === b.name) ? 'constant' : 'literal'} of expressions and cannot be bound`, fix: 'pick another name' }));
       return;
     }
     const prior = this.lookup(b.name);

@@ -58,7 +58,8 @@ export class InputError extends Error {
     const where = this.file ? [this.file, this.line, this.col].filter((p) => p !== undefined).join(':') : '';
     const head = [where, this.field].filter(Boolean).join(': ');
     const first = head ? `${head}: ${this.message}` : this.message;
-    return this.fix ? `${first}\n  fix: ${this.fix}` : first;
+    // continuation lines of a fix (an excerpt with carets) line up under its first line
+    return this.fix ? `${first}\n  fix: ${this.fix.split('\n').join('\n       ')}` : first;
   }
 }
 

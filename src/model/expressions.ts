@@ -1,25 +1,14 @@
 /** Expressions read from files: compiled once, located in the file, checked for allowed functions. */
-import { ExprError, parseExpr, parseTemplate, type Compiled, type ExprNode, type Template } from '../expr/index.js';
+import { ExprError, FUNCTIONS, functionNames, parseExpr, signature, parseTemplate, type Compiled, type ExprNode, type Template } from '../expr/index.js';
 import { InputError } from './errors.js';
 import { didYouMean } from './suggest.js';
 import type { Expr, SourcePos, WrittenText } from './types.js';
 import { fieldName, type Path, type SourceDoc } from './yaml-source.js';
 
-/** Functions a node's program may call. */
-export const PROGRAM_FUNCTIONS: readonly string[] = ['xor', 'min', 'max', 'abs', 'floor', 'round', 'join', 'age', 'now'];
-/** Functions only breakpoints and expectations may call (FORMAT.md §3). */
-export const DEBUGGER_FUNCTIONS: readonly string[] = [
-  'fidelity',
-  'bell',
-  'pairs',
-  'inflight',
-  'delivered',
-  'min_fidelity_delivered',
-  'fired',
-  'stalled',
-  'time',
-  'event',
-];
+/** Functions a node's program may call (from the language's table of functions). */
+export const PROGRAM_FUNCTIONS: readonly string[] = functionNames('program');
+/** Functions only breakpoints and expectations may call (docs/expressions.md). */
+export const DEBUGGER_FUNCTIONS: readonly string[] = FUNCTIONS.filter((f) => f.scope === 'debugger').map((f) => f.name);
 
 /** The node an expression names when it is a bare node id or a string literal of one. */
 export function staticNode(e: Expr, nodeIds: ReadonlySet<string> | readonly string[]): string | undefined {
@@ -183,7 +172,9 @@ export class ExprCompiler {
         code: 'expression',
         field: fieldName(path),
         message: `in expression ${JSON.stringify(source)}: ${err.detail}`,
-        fix: 'write a valid expression; text inside an expression needs its own quotes, e.g. "\'waiting\'"',
+        fix: / takes .* arguments?, got /.test(err.detail)
+          ? 'give the function the arguments it takes (docs/expressions.md lists them)'
+          : 'write a valid expression; text inside an expression needs its own quotes, e.g. "\'waiting\'"',
       }),
     );
   }
@@ -208,10 +199,44 @@ export class ExprCompiler {
             code: 'expression',
             field: fieldName(path),
             message: `unknown function ${fn}()${didYouMean(fn, PROGRAM_FUNCTIONS)}`,
-            fix: `programs may call ${PROGRAM_FUNCTIONS.join(', ')}`,
+            fix: `programs may call ${PROGRAM_FUNCTIONS.join(', ')} (see docs/expressions.md)`,
           }),
         );
       }
+    }
+    this.checkArguments(e, path);
+  }
+
+  /** Literal arguments of the wrong kind (`xor(2, 1)`, `age(3)`), found before any run. */
+  private checkArguments(e: Expr, path: Path): void {
+    const calls: Extract<ExprNode, { type: 'call' }>[] = [];
+    findNode(e.compiled.ast, (n) => {
+      if (n.type === 'call') calls.push(n);
+      return false;
+    });
+    for (const call of calls) {
+      const spec = FUNCTIONS.find((f) => f.name === call.callee);
+      if (!spec) continue;
+      call.args.forEach((arg, i) => {
+        const param = spec.params[Math.min(i, spec.params.length - 1)];
+        if (arg.type !== 'literal' || param === undefined) return;
+        const v = arg.value;
+        const fits =
+          param.kind === 'number' ? typeof v === 'number'
+          : param.kind === 'bit' ? v === 0 || v === 1 || v === true || v === false
+          : param.kind === 'pair' || param.kind === 'pair-id' ? typeof v === 'string'
+          : true;
+        if (fits) return;
+        const want = param.kind === 'number' ? 'a number' : param.kind === 'bit' ? 'a bit (0 or 1) or true/false' : 'a pair (a bound name, or a pair id in quotes)';
+        this.errors.push(
+          InputError.at(exprPos(e, arg.start), {
+            code: 'expression',
+            field: fieldName(path),
+            message: `${call.callee}() takes ${want} as its ${param.name}, got ${JSON.stringify(v)}`,
+            fix: `write ${signature(spec)} with ${want} for ${param.name}`,
+          }),
+        );
+      });
     }
   }
 

@@ -1,4 +1,5 @@
 /** Loads a program set (`*.net.yaml`, FORMAT.md §1) into the typed value of types.ts. */
+import { CONSTANTS } from '../expr/index.js';
 import type { RuleBuild } from './build-guards.js';
 import { buildRule } from './build-rule.js';
 import { ExprCompiler } from './expressions.js';
@@ -25,6 +26,11 @@ function buildNodes(ctx: FileCtx, raw: RawProgramSet): NodeDef[] {
       return;
     }
     seen.set(n.id, i);
+    if (CONSTANTS.some((c) => c.name === n.id)) {
+      // expressions would read the constant, never the node
+      ctx.error(['nodes', i, 'id'], { code: 'reference', message: `"${n.id}" is a constant of expressions (${n.id} = ${CONSTANTS.find((c) => c.name === n.id)?.value}) and cannot be a node id`, fix: 'pick another node id' });
+      return;
+    }
     nodes.push({ id: n.id, qubits: n.qubits, pos: ctx.pos(['nodes', i]) });
   });
   return nodes;

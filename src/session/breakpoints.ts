@@ -6,10 +6,11 @@
  * hits when some pair's fidelity drops below 0.9.
  */
 import { evaluate, ExprError, formatValue, parseExpr, closest } from '../expr/index.js';
-import type { Compiled, ExprNode, Value } from '../expr/types.js';
+import type { Compiled, Value } from '../expr/types.js';
 import { InputError } from '../model/errors.js';
 import type { EngineEvent, Net, World } from '../engine/index.js';
-import { DEBUG_FUNCTION_NAMES, debugScope } from './debug-functions.js';
+import { debugScope } from './debug-functions.js';
+import { checkDebugExpr } from './expr-check.js';
 
 export type BreakKind = 'condition' | 'fire' | 'send' | 'deliver' | 'discard' | 'stall';
 
@@ -39,8 +40,7 @@ export class BreakpointError extends Error {
   }
 }
 
-/** Functions breakpoints, watches and expectations may call. */
-export const ALLOWED_CALLS: ReadonlySet<string> = new Set<string>([...DEBUG_FUNCTION_NAMES, 'xor', 'min', 'max', 'abs', 'floor', 'round', 'join']);
+export { ALLOWED_CALLS } from './expr-check.js';
 
 function usage(message: string, fix: string, field = 'breakpoint'): InputError {
   return new InputError({ code: 'usage', field, message, fix });
@@ -108,54 +108,11 @@ export function parseBreakpoint(net: Net, spec: string, id: number, field = 'bre
   try {
     compiled = parseExpr(text);
   } catch (e) {
-    if (e instanceof ExprError) throw usage(`${e.detail} at column ${e.col}`, `check the expression:\n${e.excerpt()}`, field);
+    if (e instanceof ExprError) throw usage(`${e.detail} at column ${e.col} of "${text}"`, `check the expression:\n${e.excerpt()}`, field);
     throw e;
   }
-  for (const c of compiled.calls) {
-    if (!ALLOWED_CALLS.has(c)) {
-      const near = closest(c, [...ALLOWED_CALLS]);
-      throw usage(`unknown function "${c}"${near ? ` (did you mean "${near}"?)` : ''}`, `breakpoints may call: ${[...ALLOWED_CALLS].join(', ')}`, field);
-    }
-  }
-  const pairVars = compiled.names.filter((n) => !net.nodeSet.has(n));
-  const misplaced = pairVars.find((v) => !onlyPairArgument(compiled.ast, v));
-  if (misplaced) {
-    const near = closest(misplaced, net.nodeIds);
-    throw usage(
-      `unknown name "${misplaced}"${near ? ` (did you mean "${near}"?)` : ''}`,
-      `names are node ids (${net.nodeIds.join(', ')}); any other name stands for a held pair and may only be the argument of fidelity() or bell()`,
-      field,
-    );
-  }
-  if (pairVars.length > 2) throw usage(`too many free names (${pairVars.join(', ')}); at most two can range over pairs`, 'use pair ids in quotes, e.g. fidelity("mill~quay#3")', field);
+  const pairVars = checkDebugExpr(net, text, compiled, { field, what: field === 'watch' ? 'watch' : 'breakpoint', pairVars: true });
   return { ...base, kind: 'condition', compiled, pairVars };
-}
-
-/** Whether every use of `name` in the tree is the sole argument of fidelity() or bell(). */
-function onlyPairArgument(ast: ExprNode, name: string): boolean {
-  const ok = (n: ExprNode, parentOk: boolean): boolean => {
-    switch (n.type) {
-      case 'name':
-        return n.name !== name || parentOk;
-      case 'call': {
-        const pairFn = (n.callee === 'fidelity' || n.callee === 'bell') && n.args.length === 1;
-        return n.args.every((a) => ok(a, pairFn));
-      }
-      case 'member':
-        return ok(n.object, false);
-      case 'index':
-        return ok(n.object, false) && ok(n.index, false);
-      case 'unary':
-        return ok(n.argument, false);
-      case 'binary':
-        return ok(n.left, false) && ok(n.right, false);
-      case 'conditional':
-        return ok(n.test, false) && ok(n.consequent, false) && ok(n.alternate, false);
-      default:
-        return true;
-    }
-  };
-  return ok(ast, false);
 }
 
 /** Every assignment of held pair ids to the breakpoint's pair variables. */

@@ -6,9 +6,11 @@
 import { evaluate, ExprError, formatValue, parseExpr } from '../expr/index.js';
 import type { Compiled, Value } from '../expr/types.js';
 import { InputError } from '../model/errors.js';
-import { ProgramError, quiescence, stallReport, type Engine, type EngineEvent, type World } from '../engine/index.js';
+import { ProgramError, quiescence, stallReport, type Engine, type EngineEvent, type Net, type World } from '../engine/index.js';
 import { formatDuration } from '../model/units.js';
-import { ALLOWED_CALLS, breakpointScanner, type Breakpoint } from './breakpoints.js';
+import { breakpointScanner, type Breakpoint } from './breakpoints.js';
+import { checkDebugExpr } from './expr-check.js';
+import { observe, sawText } from './observe.js';
 import { debugScope } from './debug-functions.js';
 import { summarize, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
 
@@ -23,21 +25,22 @@ export interface Expectation {
   readonly compiled: Compiled;
 }
 
-/** Parses an expectation; throws InputError with the column and a fix when it does not parse. */
-export function parseExpectation(spec: string): Expectation {
+/**
+ * Parses an expectation and checks it against the network, so that a wrong name, function
+ * or number of arguments is an input error (with its column) before anything runs.
+ */
+export function parseExpectation(spec: string, net: Net): Expectation {
+  let compiled: Compiled;
   try {
-    const compiled = parseExpr(spec);
-    const bad = compiled.calls.find((c) => !ALLOWED_CALLS.has(c));
-    if (bad) {
-      throw new InputError({ code: 'usage', field: '--expect', message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...ALLOWED_CALLS].join(', ')}` });
-    }
-    return { spec, compiled };
+    compiled = parseExpr(spec);
   } catch (e) {
     if (e instanceof ExprError) {
       throw new InputError({ code: 'expression', field: '--expect', message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
     }
     throw e;
   }
+  checkDebugExpr(net, spec, compiled, { field: '--expect', what: 'expectation', pairVars: false });
+  return { spec, compiled };
 }
 
 export interface RunOptions {
@@ -63,14 +66,15 @@ export interface RunResult {
 /** Evaluates expectations on a final world. A failed evaluation is a failed expectation. */
 export function checkExpectations(engine: Engine, w: World, exps: readonly Expectation[]): ExpectationResult[] {
   return exps.map((e) => {
+    const scope = debugScope(engine.net, w);
     let value: Value;
     try {
-      value = evaluate(e.compiled, debugScope(engine.net, w));
+      value = evaluate(e.compiled, scope);
     } catch (err) {
       const msg = err instanceof ExprError ? err.detail : err instanceof Error ? err.message : String(err);
-      return { expr: e.spec, ok: false, value: `error: ${msg}` };
+      return { expr: e.spec, ok: false, value: `error: ${msg}`, saw: observe(e.compiled, scope) };
     }
-    return { expr: e.spec, ok: value === true || value === 1, value };
+    return { expr: e.spec, ok: value === true || value === 1, value, saw: observe(e.compiled, scope) };
   });
 }
 
@@ -141,7 +145,13 @@ function runToStop(engine: Engine, opts: RunOptions, from?: World): RunResult {
   return { world, stop, summary: summarize(engine.net, world, opts.seed, stop, expectations, stall), breakpoint: hitBp };
 }
 
-/** One line per expectation, for text output. */
+/** One line per expectation, for text output: `FAIL delivered() > 3 (delivered() = 2)`. */
 export function describeExpectations(results: readonly ExpectationResult[]): string[] {
-  return results.map((r) => `${r.ok ? 'ok  ' : 'FAIL'} ${r.expr}  (${formatValue(r.value)})`);
+  return results.map((r) => `${r.ok ? 'ok  ' : 'FAIL'} ${expectationLine(r)}`);
+}
+
+/** An expectation with what it saw: `delivered() > 3 (delivered() = 2)`. */
+export function expectationLine(r: ExpectationResult): string {
+  const saw = sawText(r.saw ?? []);
+  return `${r.expr} (${saw || formatValue(r.value)})`;
 }

@@ -15,7 +15,10 @@ export interface Stop {
 export interface ExpectationResult {
   expr: string;
   ok: boolean;
+  /** The expression's value at the end of the run. */
   value: Value;
+  /** The values of the parts it compared (`min_fidelity_delivered()` in `min_fidelity_delivered() > 0.8`). */
+  saw: { expr: string; value: Value }[];
 }
 
 export interface RunSummary {

@@ -63,6 +63,8 @@ describe('compileExpr', () => {
         } catch (e) {
           // The generator can write xs['vale'], which the parser rightly refuses.
           if (e instanceof ExprError && e.detail.includes('not with a string index')) return;
+          // or min(), which the parser refuses by the table of functions
+          if (e instanceof ExprError && / takes .* arguments?, got /.test(e.detail)) return;
           throw e;
         }
         const viaWalk = outcome(() => walk(compiled.ast, scope));

@@ -27,7 +27,7 @@ describe('baseFunctions', () => {
       }
     }
     expect(detail('xor(2, 0)')).toBe('xor needs bits (0/1) or true/false, got number 2 in `xor(2, 0)`');
-    expect(detail('xor(1)')).toBe('xor takes 2 arguments, got 1 in `xor(1)`');
+    expect(detail('xor(1)')).toBe('xor() takes 2 arguments, got 1: write xor(a, b)');
   });
 
   it('min and max take numbers, or one array of numbers', () => {
@@ -35,7 +35,7 @@ describe('baseFunctions', () => {
     expect(run('max(3, -1, 2)')).toBe(3);
     expect(run('min(bits)')).toBe(0);
     expect(run('max(0.25)')).toBe(0.25);
-    expect(detail('min()')).toBe('min needs at least one number in `min()`');
+    expect(detail('min()')).toBe('min() takes at least 1 argument, got 0: write min(x, more...)');
     expect(detail('max(1, "2")')).toBe('max needs numbers, got string "2" in `max(1, "2")`');
   });
 
@@ -47,7 +47,7 @@ describe('baseFunctions', () => {
     expect(run('round(-2.5)')).toBe(-3);
     expect(run('round(2.4)')).toBe(2);
     expect(run('round(-0.4)')).toBe(0);
-    expect(detail('abs(1, 2)')).toBe('abs takes 1 argument, got 2 in `abs(1, 2)`');
+    expect(detail('abs(1, 2)')).toBe('abs() takes 1 argument, got 2: write abs(x)');
     expect(detail('round(t)')).toBe('round needs numbers, got true in `round(t)`');
   });
 });

@@ -43,9 +43,9 @@ describe('diagnoses', () => {
 
   it('keep the failing expectations, not their values', () => {
     const d = diagnoseExpectations([
-      { expr: 'delivered() >= 10', ok: false, value: false },
-      { expr: 'min_fidelity_delivered() > 0.9', ok: true, value: true },
-      { expr: 'fired(kiln, "start") > 2', ok: false, value: false },
+      { expr: 'delivered() >= 10', ok: false, value: false, saw: [{ expr: "delivered()", value: 7 }] },
+      { expr: 'min_fidelity_delivered() > 0.9', ok: true, value: true, saw: [] },
+      { expr: 'fired(kiln, "start") > 2', ok: false, value: false, saw: [] },
     ]);
     expect(d.signature).toBe('expect | delivered() >= 10 | fired(kiln, "start") > 2');
     expect(d.explanation).toBe('The run ends without a stall, but these expectations do not hold at its end: delivered() >= 10; fired(kiln, "start") > 2.');

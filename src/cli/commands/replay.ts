@@ -3,6 +3,8 @@ import { formatValue } from '../../expr/index.js';
 import { formatDuration } from '../../model/units.js';
 import { parseReplay, type ReplayFile } from '../../session/replay.js';
 import { verifyReplay, type VerifyResult } from '../../session/verify.js';
+import { describeExpectations, expectationLine } from '../../session/run.js';
+import { sawText } from '../../session/observe.js';
 import { performance } from 'node:perf_hooks';
 import { junitXml, type JunitCase } from '../../report/junit.js';
 import { readInput } from '../inputs.js';
@@ -16,11 +18,12 @@ export function junitReport(name: string, r: ReplayFile, v: VerifyResult, second
   cases.push(v.divergence ? { ...verify, failure: { type: 'divergence', message: v.divergence.message, text: v.divergence.message } } : verify);
   for (const e of v.expectations) {
     const value = formatValue(e.value);
+    const saw = sawText(e.saw ?? []);
     cases.push({
       name: e.expr,
       classname: 'bellstep.expect',
       seconds: 0,
-      failure: e.ok ? undefined : { type: 'expectation', message: `${e.expr} was ${value}`, text: `expected ${e.expr} to hold; value ${value}` },
+      failure: e.ok ? undefined : { type: 'expectation', message: `FAIL ${expectationLine(e)}`, text: `expected ${e.expr} to hold; it was ${value}${saw ? `, with ${saw}` : ''}` },
     });
   }
   return junitXml([
@@ -76,7 +79,7 @@ export const replayCommand: CommandSpec = {
       io.stdout(`${JSON.stringify({ format: 'bellstep/verify@1', ...result }, null, 2)}\n`);
     } else {
       io.stdout(result.divergence ? `DIVERGED after ${result.checked} matching events\n  ${result.divergence.message}\n` : `verified: all ${result.checked} events match the recording\n`);
-      for (const e of result.expectations) io.stdout(`${e.ok ? 'ok  ' : 'FAIL'} ${e.expr}  (${formatValue(e.value)})\n`);
+      for (const line of describeExpectations(result.expectations)) io.stdout(`${line}\n`);
     }
     return result.ok && result.expectations.every((e) => e.ok) ? EXIT.ok : EXIT.problems;
   },

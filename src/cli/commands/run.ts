@@ -63,7 +63,7 @@ export const runCommand: CommandSpec = {
     const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
     const engine = new Engine(programSet, noise);
     const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
-    const expectations = many(opts.expect).map(parseExpectation);
+    const expectations = many(opts.expect).map((e) => parseExpectation(e, engine.net));
     const seed = noise.seed;
     const recorder = record !== undefined ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
     // an internal error saves a replay of the run so far: the recording if there is one, else

@@ -1,7 +1,8 @@
 /** Loads a program set and a noise model together, as every command that runs a network does. */
 import { crossCheck } from './cross-check.js';
 import { InputError, InputErrors } from './errors.js';
-import { idealNoise, loadNoiseModel } from './load-noise.js';
+import { sortErrors } from './file-ctx.js';
+import { idealNoise, loadNoiseParts } from './load-noise.js';
 import { loadProgramSet } from './load-program.js';
 import type { NoiseModel, ProgramSet } from './types.js';
 
@@ -29,10 +30,23 @@ export function loadInputs(opts: InputFiles): { programSet: ProgramSet; noise: N
   };
   // Both files are checked before giving up, so one run reports the problems of each.
   const programSet = attempt(() => loadProgramSet(opts.netFile, opts.netText));
-  const loaded =
-    opts.noiseText === undefined ? idealNoise(opts.seed ?? 1) : attempt(() => loadNoiseModel(opts.noiseFile ?? 'noise.yaml', opts.noiseText as string));
-  if (problems.length > 0 || !programSet || !loaded) throw new InputErrors(problems);
+  let loaded: NoiseModel | undefined;
+  if (opts.noiseText === undefined) loaded = idealNoise(opts.seed ?? 1);
+  else {
+    const parts = attempt(() => loadNoiseParts(opts.noiseFile ?? 'noise.yaml', opts.noiseText as string));
+    if (parts) {
+      problems.push(...parts.errors);
+      loaded = parts.model;
+    }
+  }
+  // the valid parts of a noise file are checked against the network too, in the same pass;
+  // a program set with errors is no reference to check against
+  if (programSet && loaded) attempt(() => crossCheck(programSet, loaded));
+  if (problems.length > 0 || !programSet || !loaded) {
+    // the program set's errors first, then the noise model's, each in file order
+    const net = problems.filter((e) => e.file === opts.netFile);
+    throw new InputErrors([...sortErrors(net), ...sortErrors(problems.filter((e) => e.file !== opts.netFile))]);
+  }
   const noise = opts.seed === undefined ? loaded : { ...loaded, seed: opts.seed };
-  crossCheck(programSet, noise);
   return { programSet, noise };
 }

@@ -1,7 +1,12 @@
 /** Loads a noise model (`*.noise.yaml`, FORMAT.md §2), merging per-link and per-node settings over the defaults. */
+import type { z } from 'zod';
 import { FileCtx } from './file-ctx.js';
-import { openFile } from './open-file.js';
-import { noiseValidation, type RawGates, type RawLinkNoise, type RawMemory, type RawNoise } from './schema-noise.js';
+import { InputErrors, type InputError } from './errors.js';
+import { sortErrors } from './file-ctx.js';
+import { checkFormatTag } from './format-tag.js';
+import { validate } from './issues.js';
+import { NOISE_FORMAT, noiseValidation, type RawGates, type RawLinkNoise, type RawMemory, type RawNoise } from './schema-noise.js';
+import { SourceDoc } from './yaml-source.js';
 import { NODE_ID_RE } from './schema-program.js';
 import type { ClassicalNoise, Fault, GateNoise, LinkNoise, MemoryNoise, NodeNoise, NoiseModel, PairStateSpec, SuccessSpec } from './types.js';
 import { parseDuration, parseLoss, parseSpeed } from './units.js';
@@ -171,7 +176,55 @@ class NoiseBuilder {
 
 /** Parses and validates a noise model; throws InputErrors naming file:line:col for anything wrong. */
 export function loadNoiseModel(file: string, text: string): NoiseModel {
-  const { ctx, raw } = openFile<RawNoise>(file, text, 'noise model', noiseValidation.noise);
+  const { model, errors } = loadNoiseParts(file, text);
+  if (errors.length > 0) throw new InputErrors(sortErrors(errors));
+  return model;
+}
+
+/** The valid parts of a noise file, checked part by part, so that one wrong entry hides no other. */
+function noiseParts(src: SourceDoc, errors: InputError[]): RawNoise {
+  const parts = noiseValidation.parts;
+  const top = src.value as Record<string, unknown>;
+  const isMap = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+  const shell = validate(src, parts.shell, top, errors, []);
+  let defaults: Record<string, unknown> | undefined;
+  if (top.defaults !== undefined && validate(src, parts.defaultsShell, top.defaults, errors, ['defaults'])) {
+    defaults = {};
+    const d = top.defaults as Record<string, unknown>;
+    for (const k of ['link', 'memory', 'gates', 'classical'] as const) {
+      if (d[k] === undefined) continue;
+      const ok = validate(src, parts.defaults[k] as z.ZodType<unknown>, d[k], errors, ['defaults', k]);
+      if (ok) defaults[k] = ok;
+    }
+  }
+  const links: Record<string, RawLinkNoise> = {};
+  for (const [k, v] of Object.entries(isMap(top.links) ? top.links : {})) {
+    const ok = validate(src, parts.link, v, errors, ['links', k]);
+    if (ok) links[k] = ok as RawLinkNoise;
+  }
+  const nodes: Record<string, { memory?: RawMemory; gates?: RawGates }> = {};
+  for (const [k, v] of Object.entries(isMap(top.nodes) ? top.nodes : {})) {
+    const ok = validate(src, parts.node, v, errors, ['nodes', k]);
+    if (ok) nodes[k] = ok as { memory?: RawMemory; gates?: RawGates };
+  }
+  // a wrong entry leaves a hole, so the others keep their index (faults[3]) in later messages;
+  // holes only ever exist alongside errors, and then the model is only cross-checked
+  const list: unknown[] = Array.isArray(top.faults) ? top.faults : [];
+  const faults: NonNullable<RawNoise['faults']>[number][] = [];
+  faults.length = list.length;
+  list.forEach((f, i) => {
+    const ok = validate(src, parts.fault, f, errors, ['faults', i]);
+    if (ok) faults[i] = ok as NonNullable<RawNoise['faults']>[number];
+  });
+  return { format: NOISE_FORMAT, seed: shell?.seed ?? 0, ...(defaults ? { defaults: defaults as RawNoise['defaults'] } : {}), links, nodes, faults };
+}
+
+/** Loads a noise file as far as it is valid: the model from its valid parts, and every error found. */
+export function loadNoiseParts(file: string, text: string): { model: NoiseModel; errors: InputError[] } {
+  const src = SourceDoc.parse(file, text);
+  checkFormatTag(src, 'noise model');
+  const ctx = new FileCtx(src);
+  const raw = noiseParts(src, ctx.errors);
   const b = new NoiseBuilder(ctx);
   const d = raw.defaults;
   const defaults = {
@@ -194,6 +247,5 @@ export function loadNoiseModel(file: string, text: string): NoiseModel {
     };
   }
   const faults = b.faults(raw.faults);
-  ctx.throwIfErrors();
-  return { file, text, seed: raw.seed, defaults, links, nodes, faults };
+  return { model: { file, text, seed: raw.seed, defaults, links, nodes, faults }, errors: ctx.errors };
 }

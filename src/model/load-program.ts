@@ -4,11 +4,13 @@ import type { RuleBuild } from './build-guards.js';
 import { buildRule } from './build-rule.js';
 import { ExprCompiler } from './expressions.js';
 import { FileCtx } from './file-ctx.js';
-import { openFile } from './open-file.js';
+import { checkFormatTag } from './format-tag.js';
+import { validateProgramParts } from './partial-program.js';
 import { checkRoles, checkRuleNames, expandUses, roleDuplicateKey } from './roles.js';
-import { programValidation, type RawProgramSet } from './schema-program.js';
+import type { RawProgramSet } from './schema-program.js';
 import { didYouMean } from './suggest.js';
-import type { LinkDef, NodeDef, Program, ProgramSet } from './types.js';
+import type { LinkDef, NodeDef, Program, ProgramSet, Rule } from './types.js';
+import { SourceDoc } from './yaml-source.js';
 import { parseLength } from './units.js';
 
 /** The link id of two node ids: "a~b" with the ends sorted. */
@@ -36,9 +38,9 @@ function buildNodes(ctx: FileCtx, raw: RawProgramSet): NodeDef[] {
   return nodes;
 }
 
-function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[]): LinkDef[] {
-  const ids = nodes.map((n) => n.id);
-  const idSet = new Set(ids);
+function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[], declared: ReadonlySet<string>): LinkDef[] {
+  const ids = [...declared];
+  const idSet = declared;
   const links: LinkDef[] = [];
   const seen = new Map<string, number>();
   (raw.links ?? []).forEach((l, i) => {
@@ -93,11 +95,12 @@ function buildLinks(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[])
   return links;
 }
 
-function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef[]): Record<string, Program> {
-  const ids = nodes.map((n) => n.id);
-  const nodeIds = new Set(ids);
+function buildPrograms(ctx: FileCtx, raw: RawProgramSet, declared: ReadonlySet<string>, brokenRoles: ReadonlySet<string>): Record<string, Program> {
+  // every id written counts, also of a node entry that is wrong otherwise: its error is enough
+  const ids = [...declared];
+  const nodeIds = declared;
   const rb: RuleBuild = { ctx, ex: new ExprCompiler(ctx.src, ctx.errors), nodeIds };
-  const roles = checkRoles(ctx, raw, nodeIds);
+  const roles = checkRoles(ctx, raw, nodeIds, brokenRoles);
   const programs: Record<string, Program> = {};
   for (const [node, prog] of Object.entries(raw.programs ?? {})) {
     if (!nodeIds.has(node)) {
@@ -106,8 +109,13 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef
     }
     // a node's roles come first, then its own rules (FORMAT.md §1 "Roles")
     const rules = expandUses(ctx, node, prog.use ?? [], roles, nodeIds);
-    (prog.rules ?? []).forEach((r, i) => rules.push(buildRule(rb, r, ['programs', node, 'rules', i], node, rules.length)));
-    checkRuleNames(ctx, node, rules);
+    const at = new Map<Rule, number>();
+    (prog.rules ?? []).forEach((r, i) => {
+      const rule = buildRule(rb, r, ['programs', node, 'rules', i], node, rules.length);
+      at.set(rule, i);
+      rules.push(rule);
+    });
+    checkRuleNames(ctx, node, rules, (r) => at.get(r) ?? 0);
     programs[node] = { node, rules, pos: ctx.src.keyPosAt(['programs'], node) };
   }
   return programs;
@@ -115,10 +123,14 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, nodes: readonly NodeDef
 
 /** Parses and validates a program set; throws InputErrors naming file:line:col for anything wrong. */
 export function loadProgramSet(file: string, text: string): ProgramSet {
-  const { ctx, raw } = openFile<RawProgramSet>(file, text, 'program set', programValidation.programSet, roleDuplicateKey);
+  const src = SourceDoc.parse(file, text, roleDuplicateKey);
+  checkFormatTag(src, 'program set');
+  const ctx = new FileCtx(src);
+  // part by part, so that a schema error and an unknown node are reported in one pass
+  const { raw, declared, brokenRoles } = validateProgramParts(src, ctx.errors);
   const nodes = buildNodes(ctx, raw);
-  const links = buildLinks(ctx, raw, nodes);
-  const programs = buildPrograms(ctx, raw, nodes);
+  const links = buildLinks(ctx, raw, nodes, declared);
+  const programs = buildPrograms(ctx, raw, declared, brokenRoles);
   ctx.throwIfErrors();
   return { file, text, title: raw.title ?? '', nodes, links, programs };
 }

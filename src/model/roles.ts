@@ -35,12 +35,13 @@ const RESERVED = new Set(['true', 'false', 'null']);
 function usersOf(raw: RawProgramSet): Map<string, string[]> {
   const out = new Map<string, string[]>();
   for (const [node, prog] of Object.entries(raw.programs ?? {})) {
-    for (const u of prog.use ?? []) {
+    // forEach skips the holes that entries with schema errors leave (model/partial-program.ts)
+    (prog.use ?? []).forEach((u) => {
       const name = typeof u === 'string' ? u : u.role;
       const list = out.get(name) ?? [];
       if (!list.includes(node)) list.push(node);
       out.set(name, list);
-    }
+    });
   }
   return out;
 }
@@ -75,7 +76,7 @@ function checkParams(ctx: FileCtx, name: string, params: readonly string[], node
 }
 
 /** Checks every role as written: its name, its parameters and its rules (with the parameters standing for nodes). */
-export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySet<string>): Map<string, RoleDef> {
+export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySet<string>, broken: ReadonlySet<string> = new Set()): Map<string, RoleDef> {
   const users = usersOf(raw);
   const roles = new Map<string, RoleDef>();
   for (const [name, role] of Object.entries(raw.roles ?? {})) {
@@ -83,7 +84,12 @@ export function checkRoles(ctx: FileCtx, raw: RawProgramSet, nodeIds: ReadonlySe
     if (!LABEL_RE.test(name)) {
       ctx.error(['roles'], { code: 'schema', message: `"${name}" is not a role name`, fix: 'use letters, digits, "_" and "-", starting with a letter, e.g. "repeater"' }, name);
     } else if (RESERVED_NAMES.has(name)) {
-      ctx.error(['roles'], { code: 'schema', message: `"${name}" is a reserved name and cannot be a role name`, fix: 'pick another name, e.g. "repeater"' }, name);
+      ctx.error(['roles'], { code: 'schema', message: `"${name}" is a reserved word and cannot be used as a role name`, fix: 'pick another name, e.g. "repeater"' }, name);
+    }
+    // its own errors are reported; the nodes that play it are not checked against half a role
+    if (broken.has(name)) {
+      roles.set(name, { name, params: role.params ?? [], raw: role, paramsOk: false, sound: false });
+      continue;
     }
     const params = role.params ?? [];
     const usedBy = usedByText(users.get(name));
@@ -194,11 +200,12 @@ function source(r: Rule): string {
 }
 
 /** Reports rule names used twice at a node once its roles are expanded, naming both sources. */
-export function checkRuleNames(ctx: FileCtx, node: string, rules: readonly Rule[]): void {
+export function checkRuleNames(ctx: FileCtx, node: string, rules: readonly Rule[], fileIndex?: (r: Rule) => number): void {
   const seen = new Map<string, Rule>();
   // role rules come first, so an own rule's index in the file is its index past them
   const fromRoles = rules.filter((x) => x.from).length;
   rules.forEach((r, k) => {
+    const own = fileIndex ? fileIndex(r) : k - fromRoles;
     const first = seen.get(r.name);
     if (!first) {
       seen.set(r.name, r);
@@ -207,14 +214,14 @@ export function checkRuleNames(ctx: FileCtx, node: string, rules: readonly Rule[
     // a role with one name twice was reported once, at the role
     if (first.from && r.from && first.from.use === r.from.use) return;
     if (!first.from && !r.from) {
-      ctx.error(['programs', node, 'rules', k - fromRoles, 'name'], {
+      ctx.error(['programs', node, 'rules', own, 'name'], {
         code: 'duplicate',
         message: `duplicate rule name "${r.name}" at ${node} (first at line ${first.pos.line})`,
         fix: 'give every rule of a node its own name',
       });
       return;
     }
-    const path = r.from ? ['programs', node, 'use', r.from.use] : ['programs', node, 'rules', k - fromRoles, 'name'];
+    const path = r.from ? ['programs', node, 'use', r.from.use] : ['programs', node, 'rules', own, 'name'];
     ctx.error(path, {
       code: 'duplicate',
       message: `at ${node}, rule name "${r.name}" ${source(r)} clashes with "${first.name}" ${source(first)}`,

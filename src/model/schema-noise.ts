@@ -110,18 +110,37 @@ function schemas(mode: Mode) {
     {},
     'A deterministic fault.',
   );
+  const defaults = obj({ link: link.optional(), memory: memory.optional(), gates: gates.optional(), classical: classical.optional() });
+  const nodeNoise = obj({ memory: memory.optional(), gates: gates.optional() });
+  const seed = z.int().min(0).describe('Seed of the random generator (the CLI\'s --seed overrides it).');
   const noise = obj(
     {
       format: z.literal(NOISE_FORMAT).describe(`Always "${NOISE_FORMAT}".`),
-      seed: z.int().min(0).describe('Seed of the random generator (the CLI\'s --seed overrides it).'),
-      defaults: obj({ link: link.optional(), memory: memory.optional(), gates: gates.optional(), classical: classical.optional() }).optional(),
+      seed,
+      defaults: defaults.optional(),
       links: z.record(mode === 'json' ? word(LINK_ID_RE, 'a link id', '"mill~quay"') : z.string(), link).describe('Per-link settings, keyed by link id (ends sorted, e.g. "mill~quay").').optional(),
-      nodes: z.record(mode === 'json' ? nodeId() : z.string(), obj({ memory: memory.optional(), gates: gates.optional() })).describe('Per-node settings, keyed by node id.').optional(),
+      nodes: z.record(mode === 'json' ? nodeId() : z.string(), nodeNoise).describe('Per-node settings, keyed by node id.').optional(),
       faults: z.array(fault).describe('Deterministic fault injection.').optional(),
     },
     'A bellstep noise model: the physics and the seed.',
   );
-  return { noise };
+  // The file in parts, each checked on its own so one wrong entry hides no other mistake.
+  const parts = {
+    shell: obj({
+      format: z.literal(NOISE_FORMAT),
+      seed,
+      defaults: z.unknown().optional(),
+      links: z.record(z.string(), z.unknown()).optional(),
+      nodes: z.record(z.string(), z.unknown()).optional(),
+      faults: z.array(z.unknown()).optional(),
+    }),
+    defaultsShell: obj({ link: z.unknown().optional(), memory: z.unknown().optional(), gates: z.unknown().optional(), classical: z.unknown().optional() }),
+    defaults: { link, memory, gates, classical },
+    link,
+    node: nodeNoise,
+    fault,
+  };
+  return { noise, parts };
 }
 
 /** Schemas used to validate noise files. */

@@ -187,21 +187,18 @@ function schemas(mode: Mode) {
     },
     'The rules one node runs: the roles it plays, then its own rules.',
   );
+  const node = obj({ id: nodeId(), qubits: count('Memory qubits at this node.') });
+  const link = obj({
+    ends: z.tuple([nodeId(), nodeId()]).describe('The two node ids the fiber joins.'),
+    length: lengthText(),
+    slots: count("Qubits at each end reserved for this link's pair generation."),
+  });
   const programSet = obj(
     {
       format: z.literal(PROGRAM_SET_FORMAT).describe(`Always "${PROGRAM_SET_FORMAT}".`),
       title: z.string().describe('A short human title.').optional(),
-      nodes: z.array(obj({ id: nodeId(), qubits: count('Memory qubits at this node.') })).min(1).describe('The sites of the network.'),
-      links: z
-        .array(
-          obj({
-            ends: z.tuple([nodeId(), nodeId()]).describe('The two node ids the fiber joins.'),
-            length: lengthText(),
-            slots: count("Qubits at each end reserved for this link's pair generation."),
-          }),
-        )
-        .describe('Fiber links that generate Bell pairs.')
-        .optional(),
+      nodes: z.array(node).min(1).describe('The sites of the network.'),
+      links: z.array(link).describe('Fiber links that generate Bell pairs.').optional(),
       roles: z
         // Names are checked while expanding, so a bad one is reported with its position.
         .record(mode === 'json' ? roleName() : z.string(), role)
@@ -215,7 +212,28 @@ function schemas(mode: Mode) {
     },
     'A bellstep program set: the network and the rules its nodes run.',
   );
-  return { programSet, guard, step };
+  // The same file in parts, each list entry and mapping value checked on its own, so that one
+  // wrong entry does not hide the mistakes of the others (model/partial-program.ts).
+  const parts = {
+    shell: obj({
+      format: z.literal(PROGRAM_SET_FORMAT),
+      title: z.string().describe('A short human title.').optional(),
+      nodes: z.array(z.unknown()).min(1).describe('The sites of the network.'),
+      links: z.array(z.unknown()).describe('Fiber links that generate Bell pairs.').optional(),
+      roles: z.record(z.string(), z.unknown()).describe('Named rule lists with parameters, which nodes play through "use".').optional(),
+      programs: z.record(z.string(), z.unknown()).describe('The rules each node runs, keyed by node id.').optional(),
+    }),
+    node,
+    link,
+    rule,
+    use,
+    roleShell: obj({ params: role.shape.params, rules: z.array(z.unknown()).min(1).describe("Rules tried, in this order, before the node's own rules.") }),
+    programShell: obj({
+      use: z.array(z.unknown()).describe('The roles this node plays; their rules are tried first, in this order.').optional(),
+      rules: z.array(z.unknown()).describe("The node's own rules, tried after its roles' rules, after every event that touches the node.").optional(),
+    }),
+  };
+  return { programSet, guard, step, parts };
 }
 
 /** Schemas used to validate files (one-key mappings dispatch on their key). */

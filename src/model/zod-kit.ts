@@ -162,7 +162,7 @@ export function word(re: RegExp, what: string, example: string) {
     .string({ error: (iss) => (iss.input === undefined ? undefined : encodeIssue({ m: `expected ${what}, got ${describeValue(iss.input)}`, f: `write ${what}, e.g. ${example}` })) })
     .regex(re, { error: (iss) => encodeIssue({ m: `${describeValue(iss.input)} is not ${what}`, f: `use ${what}, e.g. ${example}` }) })
     .refine((v) => !RESERVED_NAMES.has(v), {
-      error: (iss) => encodeIssue({ m: `${describeValue(iss.input)} is a reserved name and cannot be ${what}`, f: `pick another name, e.g. ${example}` }),
+      error: (iss) => encodeIssue({ m: `${describeValue(iss.input)} is a reserved word and cannot be used as ${what}`, f: `pick another name, e.g. ${example}` }),
     })
     .describe(`${what[0].toUpperCase()}${what.slice(1)}, e.g. ${example}.`);
 }

@@ -27,11 +27,11 @@ programs:
 
 describe('reserved names', () => {
   it.each([
-    ['a node id', NET('constructor', 'eat', 'held', 'note'), 'nodes[0].id: "constructor" is a reserved name and cannot be a node id'],
-    ['a rule name', NET('quay', 'toString', 'held', 'note'), 'programs.mill.rules[0].name: "toString" is a reserved name and cannot be a rule name'],
-    ['a rule name that sets a prototype', NET('quay', '__proto__', 'held', 'note'), '"__proto__" is a reserved name and cannot be a rule name'],
-    ['a stage', NET('quay', 'eat', 'valueOf', 'note'), 'programs.mill.rules[0].do[0].stage.to: "valueOf" is a reserved name and cannot be a stage name'],
-    ['a message kind', NET('quay', 'eat', 'held', 'hasOwnProperty'), '"hasOwnProperty" is a reserved name and cannot be a message kind'],
+    ['a node id', NET('constructor', 'eat', 'held', 'note'), 'nodes[0].id: "constructor" is a reserved word and cannot be used as a node id'],
+    ['a rule name', NET('quay', 'toString', 'held', 'note'), 'programs.mill.rules[0].name: "toString" is a reserved word and cannot be used as a rule name'],
+    ['a rule name that sets a prototype', NET('quay', '__proto__', 'held', 'note'), '"__proto__" is a reserved word and cannot be used as a rule name'],
+    ['a stage', NET('quay', 'eat', 'valueOf', 'note'), 'programs.mill.rules[0].do[0].stage.to: "valueOf" is a reserved word and cannot be used as a stage name'],
+    ['a message kind', NET('quay', 'eat', 'held', 'hasOwnProperty'), '"hasOwnProperty" is a reserved word and cannot be used as a message kind'],
   ])('refuses %s with its place and a fix', async (_what, net, says) => {
     const r = await runCli(['check', 'r.net.yaml'], { 'r.net.yaml': net });
     expect(r.code).toBe(2);
@@ -60,8 +60,9 @@ programs:
 `;
     const r = await runCli(['check', 'r.net.yaml'], { 'r.net.yaml': net });
     expect(r.code).toBe(2);
-    expect(r.stderr).toContain('roles.valueOf.params[0]: "isPrototypeOf" is a reserved name');
-    expect(r.stderr).toContain('"valueOf" is a reserved name and cannot be a role name');
+    expect(r.stderr).toContain('roles.valueOf.params[0]: "isPrototypeOf" is a reserved word');
+    expect(r.stderr).toContain('"valueOf" is a reserved word and cannot be used as a role name');
+    expect(r.stderr).toMatch(/r\.net\.yaml:8:3: roles\.valueOf: "valueOf" is a reserved word and cannot be used as a role name/);
   });
 
   it('runs a program that names a pair "toString" at run time, and counts its rules right', async () => {

@@ -70,7 +70,7 @@ export class Session {
   ) {
     this.history = new History(engine, opts.seed ?? engine.net.noise.seed, opts);
     this.continueLimit = opts.continueLimit ?? 1_000_000;
-    this.findings = lint(engine.net.programSet);
+    this.findings = lint(engine.net.programSet, engine.net.noise);
   }
 
   get seed(): number {

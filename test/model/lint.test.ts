@@ -84,7 +84,7 @@ describe('lint: message kinds', () => {
     rules:
       - name: tell
         when: [{have: {partner: ridge, as: p}}]
-        do: [{send: {to: ridge, kind: bits, pair: p.id}}]
+        do: [{send: {to: ridge, kind: bits, pair: p.id}}, {discard: p}]
   ridge:
     rules:
       - name: fix

@@ -33,8 +33,8 @@ export const checkCommand: CommandSpec = {
     let findings: Finding[];
     let summary: string;
     try {
-      const { programSet } = loadFiles(io, netPath, noisePath, undefined);
-      findings = lint(programSet);
+      const { programSet, noise } = loadFiles(io, netPath, noisePath, undefined);
+      findings = lint(programSet, noise);
       const rules = Object.values(programSet.programs).reduce((n, p) => n + p.rules.length, 0);
       summary = `${plural(programSet.nodes.length, 'node')}, ${plural(programSet.links.length, 'link')}, ${plural(rules, 'rule')}`;
     } catch (err) {

@@ -3,6 +3,7 @@
  * report with a table of signatures (each with the command that opens one in the debugger)
  * and the JUnit suite (one failing case per signature, one passing case for the rest).
  */
+import { plural } from '../model/words.js';
 import { join } from 'node:path';
 import { type JunitCase, type JunitSuite } from '../report/junit.js';
 import { figure, textTable } from '../report/table.js';
@@ -52,7 +53,7 @@ function percent(v: number | null): string {
 export function statsLines(r: SweepReport): string[] {
   const s = r.stats;
   const range = `${r.seeds.from}..${r.seeds.to}`;
-  const scope = r.seeds.shard ? `seeds ${range}, shard ${r.seeds.shard} (${r.seeds.count} seeds)` : `seeds ${range} (${r.seeds.count} seeds)`;
+  const scope = r.seeds.shard ? `seeds ${range}, shard ${r.seeds.shard} (${plural(r.seeds.count, 'seed')})` : `seeds ${range} (${plural(r.seeds.count, 'seed')})`;
   const spreadLine = (label: string, x: { mean: number | null; p5: number | null; p50: number | null; p95: number | null }, digits: number) =>
     `${label}: mean ${figure(x.mean, digits)}, p5 ${figure(x.p5, digits)}, p50 ${figure(x.p50, digits)}, p95 ${figure(x.p95, digits)}`;
   return [
@@ -107,7 +108,7 @@ export function sweepSuite(name: string, r: SweepReport, hints: OpenHints, ms: R
     return outcome === 'error' ? { ...base, error: problem } : { ...base, failure: problem };
   });
   const passed = r.runs.filter((x) => x.outcome === 'ok').map((x) => x.seed);
-  if (passed.length) cases.push({ name: `${passed.length} of ${r.stats.runs} seeds passed`, classname: 'bellstep.sweep', seconds: secs(passed) });
+  if (passed.length) cases.push({ name: `${passed.length} of ${plural(r.stats.runs, 'seed')} passed`, classname: 'bellstep.sweep', seconds: secs(passed) });
   return {
     name,
     package: 'bellstep.sweep',

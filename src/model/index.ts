@@ -14,3 +14,4 @@ export { lint, findingRule, type Finding } from './lint.js';
 export { PROGRAM_SET_FORMAT } from './schema-program.js';
 export { NOISE_FORMAT } from './schema-noise.js';
 export { editDistance, closest, didYouMean } from './suggest.js';
+export { plural, article } from './words.js';

@@ -164,6 +164,9 @@ export class ExprKinds {
       case '/':
       case '%':
         if ((!isAny(a) && a !== 'number') || (!isAny(b) && b !== 'number')) bad('two numbers');
+        else if ((n.op === '/' || n.op === '%') && n.right.type === 'literal' && n.right.value === 0) {
+          this.report(e, n, 'division-by-zero', `\`${this.text(e, n)}\` divides by zero`, 'divide by a number other than 0');
+        }
         return 'number';
       case '<':
       case '<=':

@@ -3,6 +3,7 @@
  * happened, which rules fired and what they did, in the words a person would use to
  * explain it at a whiteboard. Pure and headless, so tests and `run` can read it too.
  */
+import { article } from '../model/words.js';
 import type { EngineEvent, FireRecord, SendRecord } from '../engine/index.js';
 import { formatDuration } from '../model/units.js';
 
@@ -30,7 +31,7 @@ function plainAction(a: string): string {
     return `Bell-measured ${m[1]} and ${m[2]} (outcomes z=${m[3]}, x=${m[4]}), entangling their far ends`;
   }
   if ((m = /^measured (\S+) in (\w+): (\d)$/.exec(a))) return `measured ${m[1]} in the ${m[2]} basis and got ${m[3]}`;
-  if ((m = /^sent (\S+) to (\S+)( \(lost\))?$/.exec(a))) return `sent a "${m[1]}" message to ${m[2]}${m[3] ? ' that was lost' : ''}`;
+  if ((m = /^sent (\S+) to (\S+)( \(lost\))?$/.exec(a))) return `sent ${article(m[1])} "${m[1]}" message to ${m[2]}${m[3] ? ' that was lost' : ''}`;
   if ((m = /^delivered its half of (\S+)$/.exec(a))) return `handed its half of ${m[1]} to the application`;
   if ((m = /^delivered (\S+) \(F ([0-9.]+)\)$/.exec(a))) {
     return `handed its half of ${m[1]} to the application, completing the pair at fidelity ${m[2]}`;
@@ -68,7 +69,7 @@ function cause(ev: EngineEvent): string {
   }
   if (ev.type === 'arrive') {
     const m = /^(\S+) got (\S+) from (\S+)(?: about (\S+))?/.exec(base);
-    if (m) return `a "${m[2]}" message from ${m[3]} reached ${m[1]}${m[4] ? ` about pair ${m[4]}` : ''}`;
+    if (m) return `${article(m[2])} "${m[2]}" message from ${m[3]} reached ${m[1]}${m[4] ? ` about pair ${m[4]}` : ''}`;
     return `a message reached ${ev.node}`;
   }
   const m = /^\S+ woke \((.*)\)$/.exec(base);

@@ -3,6 +3,7 @@
  * breakpoints, expectations, the stop, every event with its digest, and a checksum over
  * everything else. Export, import with validation, and verification by re-running.
  */
+import { plural } from '../model/words.js';
 import { createHash } from 'node:crypto';
 import { basename } from 'node:path';
 import type { Engine, EngineEvent, World } from '../engine/index.js';
@@ -160,7 +161,7 @@ export class Recorder {
   /** The replay of the run so far, for the automatic replay written on an internal error. */
   partial(why: string): string {
     const n = this.events.length;
-    return this.finish({ reason: 'events', detail: `automatic replay of the first ${n} events: ${why}` });
+    return this.finish({ reason: 'events', detail: `automatic replay of the first ${plural(n, 'event')}: ${why}` });
   }
 }
 

@@ -3,6 +3,7 @@
  * and back, continues to the next breakpoint or back to the previous hit, and jumps to an
  * event or a time. The TUI, `run` and the tests all drive it; it never imports React.
  */
+import { plural } from '../model/words.js';
 import { explainNode, hasNext, quiescence, stallReport, type Engine, type EngineEvent, type RuleExplanation, type StallEntry, type World } from '../engine/index.js';
 import { evaluate, ExprError, formatValue } from '../expr/index.js';
 import type { Value } from '../expr/types.js';
@@ -60,7 +61,7 @@ export class Session {
   private watchList: Watch[] = [];
   private nextId = 1;
   private readonly hitEvents = new Map<number, Set<number>>();
-  private lastStop: SessionStop = { reason: 'start', detail: 'at the start of the run' };
+  private lastStop: SessionStop = { reason: 'start', detail: 'nothing has happened yet' };
   private readonly findings: readonly Finding[];
   private readonly continueLimit: number;
 
@@ -119,19 +120,19 @@ export class Session {
       return false;
     }
     this.cursorAt++;
-    this.lastStop = { reason: 'event', detail: `stepped to event ${this.cursorAt - 1}` };
+    this.lastStop = { reason: 'event', detail: 'stepped one event forward' };
     return true;
   }
 
   /** One event back; false at the start. */
   stepBack(): boolean {
     if (this.cursorAt === 0) {
-      this.lastStop = { reason: 'start', detail: 'at the start of the run' };
+      this.lastStop = { reason: 'start', detail: 'nothing has happened yet' };
       return false;
     }
     this.history.back(this.cursorAt);
     this.cursorAt--;
-    this.lastStop = { reason: 'event', detail: this.cursorAt ? `stepped back to event ${this.cursorAt - 1}` : 'at the start of the run' };
+    this.lastStop = { reason: 'event', detail: this.cursorAt ? 'stepped one event back' : 'nothing has happened yet' };
     return true;
   }
 
@@ -143,8 +144,8 @@ export class Session {
     this.history.place(this.cursorAt);
     this.lastStop =
       this.cursorAt < target
-        ? { reason: this.ending() ?? 'idle', detail: `the run ends after ${this.cursorAt} events` }
-        : { reason: 'event', detail: `at event ${this.cursorAt - 1}` };
+        ? { reason: this.ending() ?? 'idle', detail: `the run ends after ${plural(this.cursorAt, 'event')}` }
+        : { reason: 'event', detail: 'went to this event' };
     return this.lastStop;
   }
 
@@ -164,7 +165,7 @@ export class Session {
     }
     this.cursorAt = lo;
     this.history.place(lo);
-    this.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${lo} events)` };
+    this.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${plural(lo, 'event')})` };
     return this.lastStop;
   }
 
@@ -231,7 +232,7 @@ export class Session {
       this.hitEvents.get(hit.bp.id)?.add(hit.at - 1);
       this.cursorAt = hit.at;
       this.history.place(hit.at);
-      this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id} at event ${hit.at - 1}: ${hit.what}`, breakpoint: hit.bp.id };
+      this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id}: ${hit.what}`, breakpoint: hit.bp.id };
       return this.lastStop;
     }
     this.cursorAt = at;
@@ -241,9 +242,9 @@ export class Session {
       const onStall = active.find((b) => b.kind === 'stall');
       this.lastStop =
         end === 'stall'
-          ? { reason: 'stall', detail: `the network stalled after ${at} events`, breakpoint: onStall?.id }
-          : { reason: 'idle', detail: `nothing left to do after ${at} events` };
-    } else this.lastStop = { reason: 'limit', detail: `ran ${this.continueLimit} events without a breakpoint hit` };
+          ? { reason: 'stall', detail: `the network stalled after ${plural(at, 'event')}`, breakpoint: onStall?.id }
+          : { reason: 'idle', detail: `nothing left to do after ${plural(at, 'event')}` };
+    } else this.lastStop = { reason: 'limit', detail: `ran ${plural(this.continueLimit, 'event')} without a breakpoint hit` };
     return this.lastStop;
   }
 
@@ -269,14 +270,14 @@ export class Session {
         this.hitEvents.get(last.bp.id)?.add(last.at - 1);
         this.cursorAt = last.at;
         this.history.place(last.at);
-        this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${last.bp.id} at event ${last.at - 1}: ${last.what}`, breakpoint: last.bp.id };
+        this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${last.bp.id}: ${last.what}`, breakpoint: last.bp.id };
         return this.lastStop;
       }
       hiAt = from;
     }
     this.cursorAt = 0;
     this.history.place(0);
-    this.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; at the start of the run' };
+    this.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; nothing has happened yet' };
     return this.lastStop;
   }
 

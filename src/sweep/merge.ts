@@ -3,6 +3,7 @@
  * whole range gives, byte for byte. Refuses files of other inputs, limits or expectations,
  * seeds that two files both cover, and holes in the range, naming the files concerned.
  */
+import { plural } from '../model/words.js';
 import { InputError } from '../model/errors.js';
 import { buildReport } from './report.js';
 import { inShard, parseShard, shardSeeds, type SeedRange, type Shard } from './seeds.js';
@@ -90,7 +91,7 @@ export function parseSweepFile(text: string, file: string): SweepReport {
   if (got.size !== checked.length) throw refuse(file, 'runs', 'lists a seed twice', fix);
   const missing = expected.find((s) => !got.has(s));
   if (missing !== undefined || seeds.count !== checked.length) {
-    throw refuse(file, 'runs', `holds ${checked.length} runs, but ${seeds.shard === null ? 'the range' : `shard ${seeds.shard} of`} ${range.from}..${range.to} has ${expected.length} seeds${missing !== undefined ? ` (seed ${missing} is missing)` : ''}`, 'the file is cut short or was edited; run that sweep again');
+    throw refuse(file, 'runs', `holds ${plural(checked.length, 'run')}, but ${seeds.shard === null ? 'the range' : `shard ${seeds.shard} of`} ${range.from}..${range.to} has ${plural(expected.length, 'seed')}${missing !== undefined ? ` (seed ${missing} is missing)` : ''}`, 'the file is cut short or was edited; run that sweep again');
   }
   const signatures = new Set((failures as FailureGroup[]).map((f) => f.signature));
   const unexplained = checked.find((r) => r.signature !== null && !signatures.has(r.signature));

@@ -4,6 +4,7 @@
  * error from the session) that the command line shows inline; none can end the session
  * except `quit`.
  */
+import { plural } from '../model/words.js';
 import { closest } from '../expr/index.js';
 import { InputError } from '../model/errors.js';
 import { formatDuration, parseDuration } from '../model/units.js';
@@ -156,7 +157,7 @@ export const COMMANDS: readonly CommandDef[] = [
     const rate = Number(r);
     if (!r || !Number.isFinite(rate) || rate <= 0 || rate > 100) throw new CommandError('autoplay needs a rate in events per second, up to 100, or "off"', 'write e.g. "autoplay 2"');
     t.setAutoplay(rate);
-    return `autoplay at ${rate} events per second`;
+    return `autoplay at ${plural(rate, 'event')} per second`;
   } },
   { word: 'help', args: '', does: 'show the keys and commands', complete: 'none', run: (t) => {
     t.openHelp();

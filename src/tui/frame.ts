@@ -4,6 +4,7 @@
  * rows (command line, notes or key hints). The whole frame is rows − 1 tall at most.
  * Panes whose inputs did not change keep their lines, so React can skip them.
  */
+import { plural } from '../model/words.js';
 import { narrate } from '../session/narrate.js';
 import type { Controller } from './controller.js';
 import { KEY_HINTS } from './keys.js';
@@ -99,7 +100,7 @@ function paneModel(c: Controller, id: PaneId, width: number, height: number): Pa
     note = `${s.total} computed`;
   } else if (id === 'timeline') {
     body = timelineView({ net, world: w, records: s.history.records, log: c.log, cursor: s.cursor, site: c.site, back: c.scroll.timeline }, width, rows);
-    note = c.scroll.timeline ? `${c.scroll.timeline} events back` : 'time ↓';
+    note = c.scroll.timeline ? `${plural(c.scroll.timeline, 'event')} back` : 'time ↓';
   } else {
     let v: PaneView;
     if (id === 'network') v = networkView(net, w, c.site, width);

@@ -82,6 +82,14 @@ describe('check finds what run would refuse', () => {
     expect((await findings(truth))[0].message).toContain('the check needs true/false (or a bit 0/1), but `b.id` is text');
   });
 
+  it('a division by zero', async () => {
+    const net = SWAP_NET.replace('          - deliver: p\n  quay:', '          - log: "{m.x / 0}"\n          - deliver: p\n  quay:');
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toEqual(['division-by-zero']);
+    expect(fs[0].message).toBe('`m.x / 0` divides by zero');
+    await runRefuses(net, /division by zero in `m\.x \/ 0`/);
+  });
+
   it('a rule that consumes nothing it matches, which loops at once, or for ever when its gates take time', async () => {
     const body = SWAP_NET.slice(SWAP_NET.indexOf('          - bell_measure'), SWAP_NET.indexOf('  ridge:'));
     const net = SWAP_NET.replace(body, '          - gate: {op: h, on: a}\n');

@@ -1,4 +1,5 @@
 /** `bellstep replay R.json [--verify] [--json] [--junit OUT.xml]` (FORMAT.md §5, §7). */
+import { plural } from '../../model/words.js';
 import { formatValue } from '../../expr/index.js';
 import { formatDuration } from '../../model/units.js';
 import { parseReplay, type ReplayFile } from '../../session/replay.js';
@@ -14,7 +15,7 @@ import { EXIT, type CommandSpec } from '../spec.js';
 /** A JUnit report of a verify: one test case for the re-run and one per expectation. */
 export function junitReport(name: string, r: ReplayFile, v: VerifyResult, seconds: number, started: Date): string {
   const cases: JunitCase[] = [];
-  const verify: JunitCase = { name: `verify: ${v.checked} of ${r.events.length} events match the recording`, classname: 'bellstep.replay', seconds };
+  const verify: JunitCase = { name: `verify: ${v.checked} of ${plural(r.events.length, 'event')} match the recording`, classname: 'bellstep.replay', seconds };
   cases.push(v.divergence ? { ...verify, failure: { type: 'divergence', message: v.divergence.message, text: v.divergence.message } } : verify);
   for (const e of v.expectations) {
     const value = formatValue(e.value);
@@ -47,7 +48,7 @@ function describe(r: ReplayFile): string {
   const last = r.events[r.events.length - 1];
   return [
     `replay of ${r.inputs.program_set.file}${r.inputs.noise ? ` with ${r.inputs.noise.file}` : ''}, seed ${r.seed}, by ${r.tool.name} ${r.tool.version}`,
-    `${r.events.length} events up to ${formatDuration(last?.time_ns ?? 0)}; stopped: ${r.stop.reason} — ${r.stop.detail}`,
+    `${plural(r.events.length, 'event')} up to ${formatDuration(last?.time_ns ?? 0)}; stopped: ${r.stop.reason} — ${r.stop.detail}`,
     r.breakpoints.length ? `breakpoints: ${r.breakpoints.join('; ')}` : 'breakpoints: none',
     r.expectations.length ? `expectations: ${r.expectations.join('; ')}` : 'expectations: none',
     'check it with --verify, or open it with: bellstep debug NET.yaml --replay FILE --at N',
@@ -78,7 +79,7 @@ export const replayCommand: CommandSpec = {
     if (opts.json) {
       io.stdout(`${JSON.stringify({ format: 'bellstep/verify@1', ...result }, null, 2)}\n`);
     } else {
-      io.stdout(result.divergence ? `DIVERGED after ${result.checked} matching events\n  ${result.divergence.message}\n` : `verified: all ${result.checked} events match the recording\n`);
+      io.stdout(result.divergence ? `DIVERGED after ${plural(result.checked, 'matching event')}\n  ${result.divergence.message}\n` : `verified: ${result.checked === 1 ? 'the one event matches' : `all ${result.checked} events match`} the recording\n`);
       for (const line of describeExpectations(result.expectations)) io.stdout(`${line}\n`);
     }
     return result.ok && result.expectations.every((e) => e.ok) ? EXIT.ok : EXIT.problems;

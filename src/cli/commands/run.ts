@@ -1,4 +1,5 @@
 /** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
+import { plural } from '../../model/words.js';
 import { Engine } from '../../engine/index.js';
 import { formatDuration } from '../../model/units.js';
 import { parseBreakpoint } from '../../session/breakpoints.js';
@@ -24,7 +25,7 @@ function textReport(s: RunSummary): string {
       sum += d.fidelity;
       min = Math.min(min, d.fidelity);
     }
-    lines.push(`delivered: ${s.delivered.length} pairs, fidelity mean ${(sum / s.delivered.length).toFixed(4)}, min ${min.toFixed(4)}`);
+    lines.push(`delivered: ${plural(s.delivered.length, 'pair')}, fidelity mean ${(sum / s.delivered.length).toFixed(4)}, min ${min.toFixed(4)}`);
   } else lines.push('delivered: none');
   for (const [node, rules] of Object.entries(s.fired)) {
     lines.push(`  ${node}: ${Object.entries(rules).map(([r, n]) => `${r} ×${n}`).join(', ')}`);
@@ -88,7 +89,7 @@ export const runCommand: CommandSpec = {
       const now = Date.now();
       if (now - lastProgress < 1000) return;
       lastProgress = now;
-      const line = `… ${events} events, simulated ${formatDuration(t)}`;
+      const line = `… ${plural(events, 'event')}, simulated ${formatDuration(t)}`;
       if (io.stdoutIsTTY) io.stdout(`\r${line}`);
       else io.stderr(`${line}\n`);
     };

@@ -7,6 +7,7 @@ import { COMMANDS } from '../commands.js';
 import { KEYS } from '../keys.js';
 import type { Line } from '../lines.js';
 import { pad, wrap } from '../text.js';
+import { plural } from '../../model/words.js';
 import { TIMELINE_MARKS } from './timeline.js';
 
 function rows(items: readonly { left: string; right: string }[], cols: number): Line[] {
@@ -46,12 +47,13 @@ export function listLines(session: Session, cols: number): Line[] {
   const ws = session.watches();
   const out: Line[] = [[{ text: bps.length ? `breakpoints (${bps.length})` : 'no breakpoints: add one with  break on fire SITE.RULE  or  break EXPR', tone: 'title' }]];
   for (const b of bps) {
-    out.push(...wrap(`${b.id}  ${b.enabled ? 'on ' : 'off'}  ${b.spec}   hit ${b.hits} time${b.hits === 1 ? '' : 's'}`, cols - 2, '       ').map((l): Line => [{ text: `  ${l}`, tone: b.enabled ? 'plain' : 'dim' }]));
+    // wrap() joins words with single spaces, so the parts are set apart with dots
+    out.push(...wrap(`${b.id} · ${b.enabled ? 'active' : 'disabled'} · ${b.spec} · hit ${plural(b.hits, 'time')}`, cols - 2, '    ').map((l): Line => [{ text: `  ${l}`, tone: b.enabled ? 'plain' : 'dim' }]));
   }
   out.push([{ text: '', tone: 'plain' }], [{ text: ws.length ? `watches (${ws.length})` : 'no watches: add one with  watch EXPR', tone: 'title' }]);
   for (const w of ws) {
     const changed = w.changedAt !== undefined ? `, changed at #${w.changedAt}` : '';
-    out.push(...wrap(`${w.id}  ${w.spec} = ${w.error ? `? (${w.error})` : w.value}${changed}`, cols - 2, '     ').map((l): Line => [{ text: `  ${l}`, tone: w.error ? 'bad' : 'plain' }]));
+    out.push(...wrap(`${w.id} · ${w.spec} = ${w.error ? `? (${w.error})` : w.value}${changed}`, cols - 2, '    ').map((l): Line => [{ text: `  ${l}`, tone: w.error ? 'bad' : 'plain' }]));
   }
   out.push([{ text: '', tone: 'plain' }], [{ text: 'forget ID removes one, disable ID / enable ID switch a breakpoint; Esc closes', tone: 'dim' }]);
   return out;

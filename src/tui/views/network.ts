@@ -3,6 +3,7 @@
  * by links carrying their pair counts; below it (or alone, for other shapes) one row per
  * site lists its memory use, its links with their pair counts and any waiting messages.
  */
+import { plural } from '../../model/words.js';
 import type { Net, World } from '../../engine/index.js';
 import type { Line, Seg } from '../lines.js';
 import { pad, width } from '../text.js';
@@ -113,5 +114,5 @@ export function networkView(net: Net, w: World, site: string, cols: number): Pan
     if (node.busyUntil > w.time) segs.push({ text: '  busy', tone: 'warn' });
     lines.push(segs);
   }
-  return { lines, anchor, note: `${net.nodeIds.length} sites, ${net.links.size} links` };
+  return { lines, anchor, note: `${plural(net.nodeIds.length, 'site')}, ${plural(net.links.size, 'link')}` };
 }

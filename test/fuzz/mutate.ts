@@ -70,6 +70,19 @@ const MUTATIONS: readonly ((lines: string[], rnd: () => number) => string)[] = [
     lines[i] = lines[i].slice(0, h.index) + to + lines[i].slice((h.index ?? 0) + h[0].length);
     return `name ${h[0]} → ${to} on line ${i + 1}`;
   },
+  function swapValue(lines, rnd) {
+    // a value from anywhere in the file put under another key: a pair where a node belongs, text as an angle...
+    const VALUE = /(\b[a-z_]+): ("[^"]*"|[^,{}\[\]\s][^,{}\]]*)/g;
+    const all = lines.flatMap((l) => [...l.matchAll(VALUE)].map((m) => m[2]));
+    const i = Math.floor(rnd() * lines.length);
+    const hits = [...lines[i].matchAll(VALUE)];
+    if (hits.length === 0 || all.length === 0) return 'nothing';
+    const h = pick(rnd, hits);
+    const to = pick(rnd, all);
+    const at = (h.index ?? 0) + h[1].length + 2;
+    lines[i] = lines[i].slice(0, at) + to + lines[i].slice(at + h[2].length);
+    return `${h[1]}: ${h[2]} → ${to} on line ${i + 1}`;
+  },
   function misspell(lines, rnd) {
     const i = Math.floor(rnd() * lines.length);
     const hits = [...lines[i].matchAll(WORDS)].filter((m) => m[0].length > 2);

@@ -4,7 +4,7 @@
  */
 import { resolve } from 'node:path';
 import { InputError } from '../model/errors.js';
-import type { CliIo } from './io.js';
+import type { CliIo, FileWriter } from './io.js';
 
 /** Refuses an output path that is one of the command's inputs. */
 export function checkNotInput(path: string, flag: string, inputs: readonly (string | undefined)[]): void {
@@ -45,6 +45,21 @@ export function writeOutput(io: CliIo, path: string, text: string, flag: string)
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const why = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'EISDIR' ? 'it is a directory' : code === 'ENOTDIR' ? 'a part of the path is a file' : code === 'EROFS' ? 'read-only file system' : (e as Error).message;
+    throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: ${why}`, fix: `give ${flag} a path you can write` });
+  }
+}
+
+/** Opens an output to write in pieces; a failure is an input error naming the path and the flag. */
+export function openOutput(io: CliIo, path: string, flag: string): FileWriter {
+  const kind = io.pathKind(path);
+  if (kind === 'dir' || kind === 'other') {
+    throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: it is ${kind === 'dir' ? 'a directory' : 'not a regular file (a pipe or a device)'}`, fix: `give ${flag} a file path` });
+  }
+  try {
+    return io.openWrite(path);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'ENOTDIR' ? 'a part of the path is a file' : code === 'EROFS' ? 'read-only file system' : (e as Error).message;
     throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: ${why}`, fix: `give ${flag} a path you can write` });
   }
 }

@@ -82,7 +82,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const w = ctx.w;
   const t = ctx.scope.now;
   decayTo(ctx.net, w, rec.qubit, t);
-  w.qubits[rec.qubit].frozen = true;
+  w.qubits.get(rec.qubit)!.frozen = true;
   release(ctx, name, rec);
   push(ctx.ev, 'delivers', { node: ctx.node, pair: rec.id });
   const other = w.halves[rec.id];

@@ -133,12 +133,12 @@ export interface World {
   queue: Scheduled[];
   nodes: Record<string, NodeState>;
   links: Record<string, LinkState>;
-  /** Qubits in use, by number. */
-  qubits: Record<number, QubitState>;
+  /** Qubits in use, by number (a Map: numbers as property keys make iteration slow in V8). */
+  qubits: Map<number, QubitState>;
   /** Clusters, by number. */
-  clusters: Record<number, Cluster>;
-  /** Messages on their way, by number. */
-  inflight: Record<number, Message>;
+  clusters: Map<number, Cluster>;
+  /** Messages on their way, by number, in the order they were sent. */
+  inflight: Map<number, Message>;
   halves: Record<string, HalfDelivery>;
   /** Delivered pairs: this world's view of the run's append-only delivery log (see delivered.ts). */
   delivered: DeliveredView | null;

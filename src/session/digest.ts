@@ -8,6 +8,9 @@
  */
 import type { EngineEvent, World } from '../engine/index.js';
 
+/** Char codes of the hex digits 0-9a-f. */
+const HEX_CODES = Array.from('0123456789abcdef', (c) => c.charCodeAt(0));
+
 /** Decimal digits of a number, least significant first (scratch for `tagged`). */
 const DIGITS = new Int32Array(24);
 
@@ -65,6 +68,17 @@ class Hasher {
     for (let i = 0; i < words.length; i++) this.int(words[i]);
   }
 
+  /** The same as `str` of the 16 hex digits of two 32-bit halves, without building the string. */
+  hexText(hi: number, lo: number): void {
+    this.int(16);
+    for (let s = 28; s >= 0; s -= 4) this.int(HEX_CODES[(hi >>> s) & 15]);
+    for (let s = 28; s >= 0; s -= 4) this.int(HEX_CODES[(lo >>> s) & 15]);
+  }
+
+  get halves(): [number, number] {
+    return [this.a >>> 0, this.b >>> 0];
+  }
+
   hex(): string {
     const a = this.a;
     const b = this.b;
@@ -82,6 +96,19 @@ const shared = new Hasher();
 export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
   const h = shared.reset();
   h.str(prev);
+  hashEvent(h, ev, w);
+  return h.hex();
+}
+
+/** The digest after `ev` as two 32-bit halves, chained to the previous digest's halves (the same digest as `eventDigest`). */
+export function eventDigestHalves(prevHi: number, prevLo: number, ev: EngineEvent, w: World): [number, number] {
+  const h = shared.reset();
+  h.hexText(prevHi, prevLo);
+  hashEvent(h, ev, w);
+  return h.halves;
+}
+
+function hashEvent(h: Hasher, ev: EngineEvent, w: World): void {
   h.num(ev.index);
   h.num(w.time);
   h.num(w.seq);
@@ -112,7 +139,7 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
         h.str(k);
         h.str(JSON.stringify(p.notes[k]));
       }
-      const qs = w.qubits[q];
+      const qs = w.qubits.get(q);
       if (qs) {
         h.num(qs.decayedTo);
         clusters.add(qs.cluster);
@@ -126,7 +153,7 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
   }
   // in the order of their names as text (c10 before c9), as digests have always been taken
   for (const cid of [...clusters].sort(byName)) {
-    const cl = w.clusters[cid];
+    const cl = w.clusters.get(cid);
     if (!cl) continue;
     h.tagged('c', cid);
     for (const q of cl.qubits) h.tagged('q', q);
@@ -143,7 +170,6 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
     h.str(d.id);
     h.num(d.fidelity);
   }
-  return h.hex();
 }
 
 function byName(a: number, b: number): number {

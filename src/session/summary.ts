@@ -5,7 +5,7 @@
 import { deliveries, eachDelivery, type DeliveryRecord, type Net, type StallEntry, type World } from '../engine/index.js';
 import type { Value } from '../expr/types.js';
 
-export type StopReason = 'until' | 'events' | 'idle' | 'stall' | 'breakpoint';
+export type StopReason = 'until' | 'events' | 'idle' | 'stall' | 'breakpoint' | 'crash';
 
 export interface Stop {
   reason: StopReason;

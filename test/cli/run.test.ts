@@ -74,7 +74,7 @@ describe('bellstep run', () => {
     const r = await runCli(['run', 'swap.net.yaml', '--events', '200', '--record', 'out.replay.json', '--json'], files);
     expect(() => JSON.parse(r.stdout)).not.toThrow();
     expect(r.stderr).toContain('replay written to out.replay.json');
-    expect(r.files.get('out.replay.json')).toContain('"format": "bellstep/replay@1"');
+    expect(r.files.get('out.replay.json')).toContain('"format": "bellstep/replay@2"');
   });
 
   it('gives the same summary with or without --record', async () => {

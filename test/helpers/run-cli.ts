@@ -42,6 +42,11 @@ export function memoryIo(files: Record<string, string> = {}, opts: MemoryIoOptio
       return text;
     },
     writeFile: (p, t) => void store.set(p, t),
+    openWrite: (p) => {
+      store.set(p, '');
+      return { write: (t) => void store.set(p, (store.get(p) ?? '') + t), close: () => undefined };
+    },
+    pathKind: (p) => (store.has(p) ? 'file' : [...store.keys()].some((k) => k.startsWith(`${p}/`)) ? 'dir' : 'missing'),
     stdoutIsTTY: opts.stdoutIsTTY ?? false,
     stdinIsTTY: opts.stdinIsTTY ?? false,
     stderrIsTTY: opts.stderrIsTTY ?? false,

@@ -31,7 +31,7 @@ export interface OpenOptions {
 export function parseHistory(opts: Readonly<Record<string, unknown>>): HistoryOptions {
   const window = parseCount(opts.window, '--window');
   const mb = parseCount(opts.historyMb, '--history-mb');
-  return { window, keyframeBytes: mb === undefined ? undefined : mb * 1024 * 1024 };
+  return { window, budgetBytes: mb === undefined ? undefined : mb * 1024 * 1024 };
 }
 
 /** Parses `--autoplay`: events per second, more than 0 and at most 100. */
@@ -58,8 +58,7 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
 
 /** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
 export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
-  // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
-  const session = new Session(engine, { continueLimit: 20_000, ...opts.history });
+  const session = new Session(engine, { ...opts.history });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(
@@ -73,8 +72,9 @@ export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions)
   // before Ink is loaded
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
-  if (opts.at !== undefined) session.goto(opts.at + 1);
   const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t) });
+  // a far --at is a long jump: it runs in slices once the screen is up, with its progress shown
+  if (opts.at !== undefined) controller.runLong(session.startGoto(opts.at + 1));
   onCrashSaveReplay((why) => {
     const path = crashReplayPath(io);
     io.writeFile(path, session.exportReplay({ reason: 'events', detail: `automatic replay after an internal error in the debugger: ${why}` }));
@@ -94,7 +94,7 @@ export const DEBUG_OPTIONS: readonly OptionSpec[] = [
   { flags: '--at <I>', description: 'with --replay: open with the cursor on event I' },
   { flags: '--autoplay <RATE>', description: 'teaching mode: step RATE events per second, narrating each (Space pauses)' },
   { flags: '--window <N>', description: `worlds kept one per event near the cursor, at least N and at most 2N (default ${HISTORY_DEFAULTS.window})` },
-  { flags: '--history-mb <MB>', description: `memory for keyframes further back; beyond it they are thinned (default ${HISTORY_DEFAULTS.keyframeBytes / 1024 / 1024})` },
+  { flags: '--history-mb <MB>', description: `memory kept for rewind (records, recent worlds, keyframes); beyond it keyframes far from the cursor are thinned (default ${HISTORY_DEFAULTS.budgetBytes / 1024 / 1024})` },
 ];
 
 export const debugCommand: CommandSpec = {

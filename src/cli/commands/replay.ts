@@ -40,8 +40,18 @@ export function junitReport(name: string, r: ReplayFile, v: VerifyResult, second
   ]);
 }
 
+/** The verify's verdict in words. */
+function verdict(r: ReplayFile, v: VerifyResult): string {
+  if (v.divergence) {
+    const head = v.divergence.field === 'stop' ? `DIVERGED: all ${v.checked} recorded events match, but the run does not end where the recording says` : `DIVERGED after ${v.checked} matching events`;
+    return `${head}\n  ${v.divergence.message}\n`;
+  }
+  if (v.partial) return `verified up to the crash: all ${v.checked} events match; this replay is partial (${r.stop.detail})\n`;
+  return `verified: all ${v.checked} events match the recording, and the run stops there (${r.stop.reason})\n`;
+}
+
 function describe(r: ReplayFile): string {
-  const last = r.events[r.events.length - 1];
+  const last = r.events.length ? r.events.at(r.events.length - 1) : undefined;
   return [
     `replay of ${r.inputs.program_set.file}${r.inputs.noise ? ` with ${r.inputs.noise.file}` : ''}, seed ${r.seed}, by ${r.tool.name} ${r.tool.version}`,
     `${r.events.length} events up to ${formatDuration(last?.time_ns ?? 0)}; stopped: ${r.stop.reason} — ${r.stop.detail}`,
@@ -78,7 +88,7 @@ export const replayCommand: CommandSpec = {
     if (opts.json) {
       io.stdout(`${JSON.stringify({ format: 'bellstep/verify@1', ...result }, null, 2)}\n`);
     } else {
-      io.stdout(result.divergence ? `DIVERGED after ${result.checked} matching events\n  ${result.divergence.message}\n` : `verified: all ${result.checked} events match the recording\n`);
+      io.stdout(verdict(replay, result));
       for (const e of result.expectations) io.stdout(`${e.ok ? 'ok  ' : 'FAIL'} ${e.expr}  (${formatValue(e.value)})\n`);
     }
     return result.ok && result.expectations.every((e) => e.ok) ? EXIT.ok : EXIT.problems;

@@ -2,10 +2,11 @@
 import { deliveredCount, eachDelivery, Engine, type World } from '../../engine/index.js';
 import { formatDuration } from '../../model/units.js';
 import { parseBreakpoint } from '../../session/breakpoints.js';
-import { describeExpectations, parseExpectation, runHeadless } from '../../session/run.js';
+import { DEFAULT_MAX_EVENTS, describeExpectations, parseExpectation, runHeadless } from '../../session/run.js';
 import { writeSummaryJson, type RunSummary } from '../../session/summary.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
+import { checkFileOutput, checkNotInput, openOutput } from '../outputs.js';
 import { loadFiles, many, parseCount, parseDurationFlag, parseSeed } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
@@ -51,7 +52,7 @@ export const runCommand: CommandSpec = {
     { flags: '--break <EXPR>', description: 'stop when this breakpoint hits (repeatable)', repeatable: true },
     { flags: '--expect <EXPR>', description: 'check this expression at the end; exit 1 if false (repeatable)', repeatable: true },
     { flags: '--record <R.json>', description: 'write a replay file of the run' },
-    { flags: '--json', description: 'print the run summary as JSON (FORMAT.md §6)' },
+    { flags: '--json', description: 'print the run summary as JSON' },
   ],
   async run({ io }, [netPath], opts) {
     const seedFlag = parseSeed(opts.seed);
@@ -62,20 +63,35 @@ export const runCommand: CommandSpec = {
     const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
     const expectations = many(opts.expect).map(parseExpectation);
     const seed = noise.seed;
-    const recorder = opts.record ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
+    const meta = {
+      seed,
+      breakpoints: breakpoints.map((b) => b.spec),
+      expectations: expectations.map((e) => e.spec),
+      limits: { until_ns: untilNs ?? null, events: maxEvents ?? (untilNs === undefined ? DEFAULT_MAX_EVENTS : null) },
+    };
+    const recordPath = opts.record === undefined ? undefined : String(opts.record);
+    if (recordPath !== undefined) {
+      checkNotInput(recordPath, '--record', [netPath, opts.noise as string | undefined]);
+      checkFileOutput(io, recordPath, '--record');
+    }
+    // the recording streams to its file as the run goes, so its memory does not grow
+    const file = recordPath === undefined ? undefined : openOutput(io, recordPath, '--record');
+    const recorder = file ? new Recorder(engine, meta, (chunk) => file.write(chunk)) : undefined;
     // an internal error saves a replay of the run so far: the recording if there is one, else
     // a fresh recording of the events that completed (the engine is deterministic)
     let completed = 0;
     onCrashSaveReplay((why) => {
-      let text: string;
-      if (recorder) text = recorder.partial(why);
-      else {
-        const again = new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) });
-        runHeadless(engine, { seed, maxEvents: completed, onEvent: (ev, w) => again.add(ev, w) });
-        text = again.partial(why);
+      if (recorder && file && recordPath) {
+        recorder.partial(why);
+        file.close();
+        return recordPath;
       }
       const path = crashReplayPath(io);
-      io.writeFile(path, text);
+      const out = io.openWrite(path);
+      const again = new Recorder(engine, meta, (chunk) => out.write(chunk));
+      runHeadless(engine, { seed, maxEvents: completed, onEvent: (ev, w) => again.add(ev, w) });
+      again.partial(why);
+      out.close();
       return path;
     });
 
@@ -105,9 +121,10 @@ export const runCommand: CommandSpec = {
     });
     if (io.stdoutIsTTY && lastProgress !== started) io.stdout('\r\x1b[K');
     onCrashSaveReplay(undefined);
-    if (recorder) {
-      io.writeFile(String(opts.record), recorder.finish(result.stop));
-      io.stderr(`replay written to ${String(opts.record)}\n`);
+    if (recorder && file) {
+      recorder.finish(result.stop);
+      file.close();
+      io.stderr(`replay written to ${recordPath}\n`);
     }
     // the head: the summary without its delivery records, which are read from the world as
     // they are written, so that memory does not grow with the number of pairs delivered

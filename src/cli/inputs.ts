@@ -64,3 +64,13 @@ export function many(v: unknown): string[] {
   if (v === undefined) return [];
   return Array.isArray(v) ? v.map(String) : [String(v)];
 }
+
+/** Parses an event index flag such as `--from 12`: a whole number, 0 or more. */
+export function parseIndex(v: unknown, flag: string): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  if (!/^[0-9]+$/.test(s) || !Number.isSafeInteger(Number(s))) {
+    throw new InputError({ code: 'usage', field: flag, message: `expected an event index (0 or more), got "${s}"`, fix: `write e.g. ${flag} 12` });
+  }
+  return Number(s);
+}

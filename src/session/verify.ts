@@ -105,6 +105,6 @@ function compareRun(engine: Engine, r: ReplayFile): VerifyResult {
       };
     }
   }
-  const expectations = checkExpectations(engine, world, r.expectations.map(parseExpectation));
+  const expectations = checkExpectations(engine, world, r.expectations.map((e) => parseExpectation(e)));
   return { ok: divergence === null, checked, divergence, expectations };
 }

@@ -3,14 +3,14 @@
  * from the files or, with --replay, from the replay file; --at opens the cursor on an
  * event; --autoplay starts teaching mode. Without a terminal it points to `bellstep run`.
  */
-import { Engine } from '../../engine/index.js';
+import { inputsOf, type Inputs } from '../../api/inputs.js';
+import { openSessionWith } from '../../api/session.js';
 import { InputError } from '../../model/errors.js';
 import { parseReplay } from '../../session/replay.js';
-import { Session } from '../../session/session.js';
 import { engineFromReplay } from '../../session/verify.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import type { CliIo } from '../io.js';
-import { loadFiles, many, parseCount, parseSeed, readInput } from '../inputs.js';
+import { many, parseCount, parseSeed, readInput, readInputs } from '../inputs.js';
 import { HISTORY_DEFAULTS, type HistoryOptions } from '../../session/history.js';
 import { EXIT, type CommandSpec, type OptionSpec } from '../spec.js';
 
@@ -25,6 +25,8 @@ export interface OpenOptions {
   readonly runHint: string;
   /** History bounds from --window and --history-mb. */
   readonly history?: HistoryOptions;
+  /** The seed (default: the noise model's). */
+  readonly seed?: number;
 }
 
 /** Parses --window and --history-mb into history bounds (defaults in session/history.ts). */
@@ -56,10 +58,10 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
   return env[key] !== undefined && env[key] !== '0' && env[key] !== 'false';
 }
 
-/** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
-export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
+/** Opens the debugger on validated inputs once both streams are terminals; returns the exit code. */
+export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions): Promise<number> {
   // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
-  const session = new Session(engine, { continueLimit: 20_000, ...opts.history });
+  const session = openSessionWith(inputs, { continueLimit: 20_000, ...opts.history, seed: opts.seed });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(
@@ -119,15 +121,15 @@ export const debugCommand: CommandSpec = {
       if (at !== undefined && at >= replay.events.length) {
         throw new InputError({ code: 'usage', field: '--at', message: `the replay holds events 0 to ${replay.events.length - 1}, not ${at}`, fix: `write --at ${Math.max(0, replay.events.length - 1)} or less` });
       }
-      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts) });
+      const { programSet, noise } = engineFromReplay(replay).net;
+      return openDebugger(io, inputsOf(programSet, noise), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts), seed: replay.seed });
     }
     if (netPath === undefined) {
       throw new InputError({ code: 'usage', field: 'NET.yaml', message: 'debug needs a program set or --replay', fix: 'write e.g. bellstep debug swap.net.yaml --noise swap.noise.yaml' });
     }
     if (at !== undefined) throw new InputError({ code: 'usage', field: '--at', message: '--at needs --replay', fix: 'to open at an event of a fresh run, use the command "go N" inside the debugger' });
-    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
-    const engine = new Engine(programSet, noise);
+    const inputs = readInputs(io, netPath, opts.noise as string | undefined);
     const hint = ['bellstep run', netPath, ...(opts.noise ? ['--noise', String(opts.noise)] : []), ...(seedFlag !== undefined ? ['--seed', String(seedFlag)] : []), ...breaks.map((b) => `--break "${b}"`)].join(' ');
-    return openDebugger(io, engine, { breaks, autoplay, runHint: hint, history: parseHistory(opts) });
+    return openDebugger(io, inputs, { breaks, autoplay, runHint: hint, history: parseHistory(opts), seed: seedFlag });
   },
 };

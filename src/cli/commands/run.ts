@@ -1,12 +1,11 @@
 /** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
-import { Engine } from '../../engine/index.js';
+import { executeRun, prepareRun, type RunPlan } from '../../api/run.js';
 import { formatDuration } from '../../model/units.js';
-import { parseBreakpoint } from '../../session/breakpoints.js';
-import { describeExpectations, parseExpectation, runHeadless } from '../../session/run.js';
+import { describeExpectations, runHeadless } from '../../session/run.js';
 import type { RunSummary } from '../../session/summary.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
-import { loadFiles, many, parseCount, parseDurationFlag, parseSeed } from '../inputs.js';
+import { many, parseCount, parseDurationFlag, parseSeed, readInputs } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 function textReport(s: RunSummary): string {
@@ -50,18 +49,21 @@ export const runCommand: CommandSpec = {
     { flags: '--break <EXPR>', description: 'stop when this breakpoint hits (repeatable)', repeatable: true },
     { flags: '--expect <EXPR>', description: 'check this expression at the end; exit 1 if false (repeatable)', repeatable: true },
     { flags: '--record <R.json>', description: 'write a replay file of the run' },
-    { flags: '--json', description: 'print the run summary as JSON (FORMAT.md §6)' },
+    { flags: '--json', description: 'print the run summary as JSON (bellstep/run-summary@1, with run statistics)' },
   ],
   async run({ io }, [netPath], opts) {
-    const seedFlag = parseSeed(opts.seed);
-    const untilNs = parseDurationFlag(opts.until, '--until');
-    const maxEvents = parseCount(opts.events, '--events');
-    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
-    const engine = new Engine(programSet, noise);
-    const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
-    const expectations = many(opts.expect).map(parseExpectation);
-    const seed = noise.seed;
-    const recorder = opts.record ? new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) }) : undefined;
+    const plan: RunPlan = {
+      seed: parseSeed(opts.seed),
+      untilNs: parseDurationFlag(opts.until, '--until'),
+      maxEvents: parseCount(opts.events, '--events'),
+      breaks: many(opts.break),
+      expects: many(opts.expect),
+      names: { break: '--break', expect: '--expect' },
+    };
+    const prepared = prepareRun(readInputs(io, netPath, opts.noise as string | undefined), plan);
+    const { engine, seed } = prepared;
+    const meta = { seed, breakpoints: prepared.breakpoints.map((b) => b.spec), expectations: prepared.expectations.map((e) => e.spec) };
+    const recorder = opts.record ? new Recorder(engine, meta) : undefined;
     // an internal error saves a replay of the run so far: the recording if there is one, else
     // a fresh recording of the events that completed (the engine is deterministic)
     let completed = 0;
@@ -69,7 +71,7 @@ export const runCommand: CommandSpec = {
       let text: string;
       if (recorder) text = recorder.partial(why);
       else {
-        const again = new Recorder(engine, { seed, breakpoints: breakpoints.map((b) => b.spec), expectations: expectations.map((e) => e.spec) });
+        const again = new Recorder(engine, meta);
         runHeadless(engine, { seed, maxEvents: completed, onEvent: (ev, w) => again.add(ev, w) });
         text = again.partial(why);
       }
@@ -88,12 +90,7 @@ export const runCommand: CommandSpec = {
       if (io.stdoutIsTTY) io.stdout(`\r${line}`);
       else io.stderr(`${line}\n`);
     };
-    const result = runHeadless(engine, {
-      seed,
-      untilNs,
-      maxEvents,
-      breakpoints,
-      expectations,
+    const { result, summary: s } = executeRun(prepared, {
       onEvent: recorder
         ? (ev, w) => {
             completed++;
@@ -108,7 +105,6 @@ export const runCommand: CommandSpec = {
       io.writeFile(String(opts.record), recorder.finish(result.stop));
       io.stderr(`replay written to ${String(opts.record)}\n`);
     }
-    const s = result.summary;
     io.stdout(opts.json ? `${JSON.stringify(s, null, 2)}\n` : textReport(s));
     const failed = s.expectations.some((e) => !e.ok);
     return s.stop.reason === 'stall' || failed ? EXIT.problems : EXIT.ok;

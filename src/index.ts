@@ -5,10 +5,9 @@
  */
 export { load, loadText, type Inputs, type LoadOptions, type TextInputs } from './api/inputs.js';
 export { check, type Finding } from './api/check.js';
-export { run, type RunOptions } from './api/run.js';
+export { run, type RunOptions, type RunSummary, type RunStats } from './api/run.js';
 export { sweep, type SweepOptions } from './api/sweep.js';
 export { openSession, type SessionOptions } from './api/session.js';
 export { InputError, type InputIssue } from './model/errors.js';
-export type { RunSummary } from './session/summary.js';
 export type { SweepReport } from './sweep/types.js';
 export type { Session } from './session/session.js';

@@ -6,9 +6,15 @@
 import { Engine, type EngineEvent, type World } from '../engine/index.js';
 import { parseBreakpoint, type Breakpoint } from '../session/breakpoints.js';
 import { parseExpectation, runHeadless, type Expectation, type RunResult } from '../session/run.js';
-import type { RunSummary } from '../session/summary.js';
+import { runStats, type RunStats } from '../session/run-stats.js';
+import type { RunSummary as SummaryCore } from '../session/summary.js';
 import { loaded, type Inputs } from './inputs.js';
 import { countOption, durationOption, seedOption, textsOption } from './options.js';
+
+/** The run summary that `run --json` prints: the summary's fixed keys, then `stats`. */
+export type RunSummary = SummaryCore & { stats: RunStats };
+
+export type { RunStats } from '../session/run-stats.js';
 
 /** Options of `run`. */
 export interface RunOptions {
@@ -81,7 +87,8 @@ export function executeRun(p: PreparedRun, hooks: RunHooks = {}): { result: RunR
     onEvent: hooks.onEvent,
     onBatch: hooks.onBatch,
   });
-  return { result, summary: result.summary };
+  // the summary's keys first, in their order, then the statistics
+  return { result, summary: { ...result.summary, stats: runStats(p.engine.net, result.world) } };
 }
 
 /** Runs validated inputs headless and returns the run summary, equal to what `bellstep run --json` prints. */

@@ -6,8 +6,8 @@
  */
 import type { DeliveryRecord, World } from './types.js';
 
-/** Numbers stored per record: time, fidelity and the four Bell coefficients. */
-const NUMS = 6;
+/** Numbers stored per record: time, fidelity, the four Bell coefficients and the earliest birth behind the pair. */
+const NUMS = 7;
 
 /**
  * The shared log. Records are only ever appended; a world that is behind the log's head and
@@ -28,7 +28,7 @@ export class DeliveryLog {
   get(k: number): DeliveryRecord {
     const o = NUMS * k;
     const n = this.nums;
-    return { id: this.ids[k], ends: [this.ends[2 * k], this.ends[2 * k + 1]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]] };
+    return { id: this.ids[k], ends: [this.ends[2 * k], this.ends[2 * k + 1]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]], born_ns: n[o + 6] };
   }
 
   /** The id of record k. */
@@ -43,7 +43,7 @@ export class DeliveryLog {
     return (
       this.ids[k] === r.id && this.ends[2 * k] === r.ends[0] && this.ends[2 * k + 1] === r.ends[1] &&
       Object.is(n[o], r.time_ns) && Object.is(n[o + 1], r.fidelity) && Object.is(n[o + 2], r.bell[0]) &&
-      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3])
+      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3]) && Object.is(n[o + 6], r.born_ns)
     );
   }
 
@@ -63,6 +63,7 @@ export class DeliveryLog {
     n[o + 3] = r.bell[1];
     n[o + 4] = r.bell[2];
     n[o + 5] = r.bell[3];
+    n[o + 6] = r.born_ns;
     this.ids.push(r.id);
     this.ends.push(r.ends[0], r.ends[1]);
     indexAt(this.byEnds, `${r.ends[0]} ${r.ends[1]}`, k);

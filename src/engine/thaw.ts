@@ -53,7 +53,7 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
   const links: World['links'] = {};
   for (const id in w.links) {
     const l = w.links[id];
-    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated };
+    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated, fullSince: l.fullSince, fullNs: l.fullNs };
   }
   const qubits: World['qubits'] = {};
   for (const id in w.qubits) {
@@ -63,7 +63,7 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
   const clusters: World['clusters'] = {};
   for (const id in w.clusters) {
     const c = w.clusters[id];
-    clusters[id] = { id: c.id, qubits: c.qubits, rho: c.rho };
+    clusters[id] = { id: c.id, qubits: c.qubits, rho: c.rho, born: c.born };
   }
   const c = w.counters;
   return {
@@ -160,13 +160,13 @@ const sameNode = (a: NodeState, b: NodeState): boolean => {
 
 const sameLink = (a: LinkState, b: LinkState): boolean => {
   if (sameEntries(a.used, b.used)) b.used = a.used;
-  return a.generating === b.generating && a.generated === b.generated && a.used === b.used;
+  return a.generating === b.generating && a.generated === b.generated && a.used === b.used && a.fullSince === b.fullSince && a.fullNs === b.fullNs;
 };
 
 const sameQubit = (a: QubitState, b: QubitState): boolean =>
   a.node === b.node && a.link === b.link && a.cluster === b.cluster && a.decayedTo === b.decayedTo && a.frozen === b.frozen;
 
-const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
+const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && a.born === b.born && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
 
 /**
  * Gives a worked-on copy of `base` structural sharing with it: every part equal to base's

@@ -1,8 +1,8 @@
 /** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
-import { executeRun, prepareRun, type RunPlan } from '../../api/run.js';
+import { executeRun, prepareRun, type RunPlan, type RunSummary } from '../../api/run.js';
 import { formatDuration } from '../../model/units.js';
 import { describeExpectations, runHeadless } from '../../session/run.js';
-import type { RunSummary } from '../../session/summary.js';
+import { statsTable } from '../../report/stats-text.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import { many, parseCount, parseDurationFlag, parseSeed, readInputs } from '../inputs.js';
@@ -33,6 +33,7 @@ function textReport(s: RunSummary): string {
       for (const e of entries) lines.push(`  ${node}.${e.rule}${e.from ? ` from ${e.from}` : ''}: ${e.reason}`);
     }
   }
+  lines.push('', ...statsTable(s.stats));
   if (s.expectations.length) lines.push('', 'expectations:', ...describeExpectations(s.expectations).map((l) => `  ${l}`));
   return lines.join('\n') + '\n';
 }

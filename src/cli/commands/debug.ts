@@ -76,7 +76,7 @@ export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions)
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
   if (opts.at !== undefined) session.goto(opts.at + 1);
-  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t) });
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t), readFile: (p) => io.readFile(p) });
   onCrashSaveReplay((why) => {
     const path = crashReplayPath(io);
     io.writeFile(path, session.exportReplay({ reason: 'events', detail: `automatic replay after an internal error in the debugger: ${why}` }));

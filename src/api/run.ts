@@ -76,8 +76,8 @@ export function prepareRun(inputs: Inputs, plan: RunPlan): PreparedRun {
   return { engine, seed: plan.seed ?? noise.seed, plan, breakpoints, expectations };
 }
 
-/** Runs a prepared run to its stop and gives the result and the summary `run --json` prints. */
-export function executeRun(p: PreparedRun, hooks: RunHooks = {}): { result: RunResult; summary: RunSummary } {
+/** Runs a prepared run to its stop; gives the result (its summary without statistics) and the run statistics. */
+export function executeRun(p: PreparedRun, hooks: RunHooks = {}): { result: RunResult; stats: RunStats } {
   const result = runHeadless(p.engine, {
     seed: p.seed,
     untilNs: p.plan.untilNs,
@@ -87,11 +87,12 @@ export function executeRun(p: PreparedRun, hooks: RunHooks = {}): { result: RunR
     onEvent: hooks.onEvent,
     onBatch: hooks.onBatch,
   });
-  // the summary's keys first, in their order, then the statistics
-  return { result, summary: { ...result.summary, stats: runStats(p.engine.net, result.world) } };
+  return { result, stats: runStats(p.engine.net, result.world) };
 }
 
 /** Runs validated inputs headless and returns the run summary, equal to what `bellstep run --json` prints. */
 export function run(inputs: Inputs, opts: RunOptions = {}): RunSummary {
-  return executeRun(prepareRun(inputs, planFromOptions(opts))).summary;
+  const { result, stats } = executeRun(prepareRun(inputs, planFromOptions(opts)));
+  // the summary's keys first, in their order, then the statistics
+  return { ...result.summary, stats };
 }

@@ -2,46 +2,77 @@
  * Delivery records, kept compactly: column by column in one append-only log that every world
  * of a run shares. A world sees the log through a small frozen view (`count` records), so
  * appending never copies earlier records and a world's records never change. Each record
- * costs its id plus about 60 bytes, which keeps a run of millions of events flat in memory.
+ * costs its id's bytes plus about 70 bytes, which keeps a run of millions of events flat in memory.
  */
 import type { DeliveryRecord, World } from './types.js';
 
 /** Numbers stored per record: time, fidelity, the four Bell coefficients and the earliest birth behind the pair. */
 const NUMS = 7;
 
+const encoder = new TextEncoder();
+const decoder = new TextDecoder();
+
+/** A growable list of 32-bit integers in one typed array (no object per entry). */
+class IntList {
+  length = 0;
+  data = new Int32Array(8);
+
+  push(x: number): void {
+    if (this.length === this.data.length) {
+      const grown = new Int32Array(this.data.length * 2);
+      grown.set(this.data);
+      this.data = grown;
+    }
+    this.data[this.length++] = x;
+  }
+}
+
 /**
  * The shared log. Records are only ever appended; a world that is behind the log's head and
  * delivers a different record than the one stored next (a world edited by hand, or a run
- * from another start) gets a log of its own, so no world's records change under it.
+ * from another start) gets a log of its own, so no world's records change under it. Records
+ * live in typed arrays (numbers, ends as indices into a table of names, ids as UTF-8 bytes),
+ * outside the garbage-collected heap: a million-event run keeps them in a few megabytes.
  */
 export class DeliveryLog {
   /** Records stored. */
   length = 0;
-  private ids: string[] = [];
-  private ends: string[] = [];
   private nums = new Float64Array(NUMS * 64);
+  private readonly ends = new IntList();
+  private readonly names: string[] = [];
+  private readonly nameIndex = new Map<string, number>();
+  private idBytes = new Uint8Array(2048);
+  /** Where each record's id starts in `idBytes` (and, one further, where it ends). */
+  private readonly idStart = new IntList();
   /** Indices of the records with each pair of ends ("a b", sorted) and with each end. */
-  private readonly byEnds = new Map<string, number[]>();
-  private readonly byNode = new Map<string, number[]>();
+  private readonly byEnds = new Map<string, IntList>();
+  private readonly byNode = new Map<string, IntList>();
+
+  constructor() {
+    this.idStart.push(0);
+  }
 
   /** Record k (k < length). */
   get(k: number): DeliveryRecord {
     const o = NUMS * k;
     const n = this.nums;
-    return { id: this.ids[k], ends: [this.ends[2 * k], this.ends[2 * k + 1]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]], born_ns: n[o + 6] };
+    const e = this.ends.data;
+    return { id: this.idAt(k), ends: [this.names[e[2 * k]], this.names[e[2 * k + 1]]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]], born_ns: n[o + 6] };
   }
 
   /** The id of record k. */
   idAt(k: number): string {
-    return this.ids[k];
+    const s = this.idStart.data;
+    return decoder.decode(this.idBytes.subarray(s[k], s[k + 1]));
   }
 
   /** Whether record k equals `r`, bit for bit. */
   matches(k: number, r: DeliveryRecord): boolean {
     const o = NUMS * k;
     const n = this.nums;
+    const e = this.ends.data;
     return (
-      this.ids[k] === r.id && this.ends[2 * k] === r.ends[0] && this.ends[2 * k + 1] === r.ends[1] &&
+      this.idAt(k) === r.id && this.names[e[2 * k]] === r.ends[0] && this.names[e[2 * k + 1]] === r.ends[1] &&
       Object.is(n[o], r.time_ns) && Object.is(n[o + 1], r.fidelity) && Object.is(n[o + 2], r.bell[0]) &&
       Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3]) && Object.is(n[o + 6], r.born_ns)
     );
@@ -64,11 +95,30 @@ export class DeliveryLog {
     n[o + 4] = r.bell[2];
     n[o + 5] = r.bell[3];
     n[o + 6] = r.born_ns;
-    this.ids.push(r.id);
-    this.ends.push(r.ends[0], r.ends[1]);
+    this.ends.push(this.name(r.ends[0]));
+    this.ends.push(this.name(r.ends[1]));
+    const at = this.idStart.data[k];
+    // UTF-8 takes at most three bytes per UTF-16 unit
+    while (at + 3 * r.id.length > this.idBytes.length) {
+      const grown = new Uint8Array(this.idBytes.length * 2);
+      grown.set(this.idBytes);
+      this.idBytes = grown;
+    }
+    const { written } = encoder.encodeInto(r.id, this.idBytes.subarray(at));
+    this.idStart.push(at + written);
     indexAt(this.byEnds, `${r.ends[0]} ${r.ends[1]}`, k);
     indexAt(this.byNode, r.ends[0], k);
     if (r.ends[1] !== r.ends[0]) indexAt(this.byNode, r.ends[1], k);
+  }
+
+  private name(s: string): number {
+    let i = this.nameIndex.get(s);
+    if (i === undefined) {
+      i = this.names.length;
+      this.names.push(s);
+      this.nameIndex.set(s, i);
+    }
+    return i;
   }
 
   /** A log holding this one's first `count` records. */
@@ -85,19 +135,22 @@ export class DeliveryLog {
   }
 }
 
-function indexAt(m: Map<string, number[]>, key: string, k: number): void {
-  const list = m.get(key);
-  if (list === undefined) m.set(key, [k]);
-  else list.push(k);
+function indexAt(m: Map<string, IntList>, key: string, k: number): void {
+  let list = m.get(key);
+  if (list === undefined) {
+    list = new IntList();
+    m.set(key, list);
+  }
+  list.push(k);
 }
 
 /** How many entries of an ascending list are below n. */
-function below(list: readonly number[], n: number): number {
+function below(list: IntList, n: number): number {
   let lo = 0;
   let hi = list.length;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    if (list[mid] < n) lo = mid + 1;
+    if (list.data[mid] < n) lo = mid + 1;
     else hi = mid;
   }
   return lo;

@@ -12,7 +12,7 @@ import { draw, releaseSlot } from './links.js';
 import { evalIn, evalNode, truthy, type MatchContext } from './match.js';
 import { send } from './messages.js';
 import type { Net } from './net.js';
-import { heldHalf, twoQubitState } from './pair-state.js';
+import { heldHalf, removeItem, twoQubitState } from './pair-state.js';
 import { gate, measureQubit, traceOut, decayTo, earliestBirth } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
@@ -68,8 +68,7 @@ function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   ctx.scope.bindings.dirty = true;
   ctx.scope.bindings.released.set(name, rec);
   ctx.scope.bindings.releasedAt.set(name, ctx.scope.now);
-  const i = node.pairs.indexOf(rec);
-  if (i >= 0) node.pairs.splice(i, 1);
+  removeItem(node.pairs, rec);
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
 }
 

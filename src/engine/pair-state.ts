@@ -44,6 +44,14 @@ export function farHalf(w: World, node: string, qid: number): number | undefined
   return undefined;
 }
 
+/** Removes the first occurrence of `item` from a list in place, keeping the order (unlike `splice`, it makes no new array). */
+export function removeItem<T>(list: T[], item: T): void {
+  const i = list.indexOf(item);
+  if (i < 0) return;
+  for (let j = i + 1; j < list.length; j++) list[j - 1] = list[j];
+  list.length--;
+}
+
 /** The record of the half held in qubit `qid` among a node's pairs, if it is there. */
 export function heldHalf(pairs: readonly PairRecord[] | undefined, qid: number): PairRecord | undefined {
   if (pairs === undefined) return undefined;

@@ -24,6 +24,7 @@ import {
 } from '../quantum/index.js';
 import type { Net } from './net.js';
 import { trace, traced } from './physics-trace.js';
+import { removeItem } from './pair-state.js';
 import type { Cluster, World } from './types.js';
 
 const pool = new BufferPool();
@@ -191,7 +192,7 @@ export function traceOut(w: World, qid: number): void {
 
 function dropQubit(w: World, c: Cluster, qid: number, n: number, rest: Float64Array): void {
   if (Object.isFrozen(c.qubits) || isDraft(c.qubits)) c.qubits = c.qubits.filter((x) => x !== qid);
-  else c.qubits.splice(c.qubits.indexOf(qid), 1);
+  else removeItem(c.qubits, qid);
   delete w.qubits[qid];
   replace(c, n, rest);
   if (c.qubits.length === 0) {

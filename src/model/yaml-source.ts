@@ -2,7 +2,7 @@
  * A parsed YAML file that still knows where everything came from: values are read from
  * plain JavaScript, positions from the YAML syntax tree, both addressed by the same path.
  */
-import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type Scalar } from 'yaml';
+import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type Node, type Pair, type Scalar, type YAMLMap } from 'yaml';
 import { InputError, InputErrors } from './errors.js';
 import type { SourcePos } from './types.js';
 
@@ -159,13 +159,30 @@ export class SourceDoc {
     return { file: this.file, ...this.lines.linePos(offset) };
   }
 
+  /** Each mapping's pairs by key (the first of equal keys), built on first use: a path lookup costs the same in a file of any size. */
+  private readonly keyIndex = new WeakMap<object, Map<string, Pair>>();
+
+  private pairOf(map: YAMLMap, key: string): Pair | undefined {
+    let index = this.keyIndex.get(map);
+    if (index === undefined) {
+      index = new Map();
+      for (const p of map.items) {
+        if (!isPair(p) || !isScalar(p.key)) continue;
+        const k = String(p.key.value);
+        if (!index.has(k)) index.set(k, p);
+      }
+      this.keyIndex.set(map, index);
+    }
+    return index.get(key);
+  }
+
   /** The deepest syntax node along `path`, and whether the whole path was found. */
   nodeAt(path: Path): { node: Node; exact: boolean } {
     let node = this.doc.contents as Node;
     for (const part of path) {
       let next: Node | undefined;
       if (isMap(node)) {
-        const pair = node.items.find((p) => isPair(p) && isScalar(p.key) && String(p.key.value) === String(part));
+        const pair = this.pairOf(node, String(part));
         // A key with no value ("name:") has no value node: point at the key.
         if (pair) next = (pair.value as Node | null) ?? (pair.key as Node);
       } else if (isSeq(node) && typeof part === 'number') {
@@ -186,7 +203,7 @@ export class SourceDoc {
   keyPosAt(path: Path, key: string): SourcePos {
     const { node, exact } = this.nodeAt(path);
     if (exact && isMap(node)) {
-      const pair = node.items.find((p) => isScalar(p.key) && String(p.key.value) === key);
+      const pair = this.pairOf(node, key);
       const k = pair?.key as Node | undefined;
       if (k?.range) return this.at(k.range[0]);
     }

@@ -10,7 +10,7 @@ import { ProgramError, quiescence, stallReport, type Engine, type EngineEvent, t
 import { formatDuration } from '../model/units.js';
 import { ALLOWED_CALLS, breakpointScanner, type Breakpoint } from './breakpoints.js';
 import { debugScope } from './debug-functions.js';
-import { summarize, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
+import { summarize, summaryHead, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
 
 /** Events a run applies when neither --until nor --events is given, so that it always ends. */
 export const DEFAULT_MAX_EVENTS = 1_000_000;
@@ -55,7 +55,10 @@ export interface RunOptions {
 export interface RunResult {
   readonly world: World;
   readonly stop: Stop;
+  /** The run summary (built when first read). */
   readonly summary: RunSummary;
+  /** The summary without its delivery records, for output that streams them (`writeSummaryJson`). */
+  readonly head: RunSummary;
   /** The breakpoint that stopped the run, if one did. */
   readonly breakpoint?: Breakpoint;
 }
@@ -138,7 +141,21 @@ function runToStop(engine: Engine, opts: RunOptions, from?: World): RunResult {
   }
   const stall = stop.reason === 'stall' ? stallReport(engine.net, world) : null;
   const expectations = checkExpectations(engine, world, opts.expectations ?? []);
-  return { world, stop, summary: summarize(engine.net, world, opts.seed, stop, expectations, stall), breakpoint: hitBp };
+  const seed = opts.seed;
+  const end = stop;
+  let summary: RunSummary | undefined;
+  return {
+    world,
+    stop,
+    breakpoint: hitBp,
+    get summary(): RunSummary {
+      summary ??= summarize(engine.net, world, seed, end, expectations, stall);
+      return summary;
+    },
+    get head(): RunSummary {
+      return summaryHead(engine.net, world, seed, end, expectations, stall);
+    },
+  };
 }
 
 /** One line per expectation, for text output. */

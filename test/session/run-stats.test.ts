@@ -27,13 +27,8 @@ describe('run statistics, a worked example', () => {
   //   link a~b made 40 pairs and was full 0.5 ms of 2 ms: 20000 per second, share 0.25.
   const input = {
     timeNs: 2_000_000,
-    deliveries: [
-      { fidelity: 0.91, time_ns: 400_000, born_ns: 100_000 },
-      { fidelity: 0.85, time_ns: 600_000, born_ns: 500_000 },
-      { fidelity: 0.97, time_ns: 1_000_000, born_ns: 500_000 },
-      { fidelity: 0.88, time_ns: 1_500_000, born_ns: 1_300_000 },
-      { fidelity: 0.93, time_ns: 1_900_000, born_ns: 1_500_000 },
-    ],
+    fidelities: [0.91, 0.85, 0.97, 0.88, 0.93],
+    latencies: [300_000, 100_000, 500_000, 200_000, 400_000],
     links: [{ id: 'a~b', generated: 40, fullNs: 500_000 }],
   };
 
@@ -48,7 +43,7 @@ describe('run statistics, a worked example', () => {
   });
 
   it('is null where nothing qualifies', () => {
-    const s = statsFrom({ timeNs: 0, deliveries: [], links: [{ id: 'a~b', generated: 0, fullNs: 0 }] });
+    const s = statsFrom({ timeNs: 0, fidelities: [], latencies: [], links: [{ id: 'a~b', generated: 0, fullNs: 0 }] });
     expect(s).toEqual({
       delivered_per_second: null,
       fidelity: { mean: null, min: null, p5: null, p50: null, p95: null },

@@ -1,28 +1,31 @@
 /** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
 import { executeRun, prepareRun, type RunPlan, type RunSummary } from '../../api/run.js';
+import { deliveredCount, eachDelivery, type World } from '../../engine/index.js';
 import { formatDuration } from '../../model/units.js';
-import { describeExpectations, runHeadless } from '../../session/run.js';
 import { statsTable } from '../../report/stats-text.js';
+import { describeExpectations, runHeadless } from '../../session/run.js';
+import { writeSummaryJson } from '../../session/summary.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import { many, parseCount, parseDurationFlag, parseSeed, readInputs } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
-function textReport(s: RunSummary): string {
+function textReport(s: RunSummary, w: World): string {
   const lines: string[] = [];
   lines.push(`stopped: ${s.stop.reason} — ${s.stop.detail}`);
   lines.push(`events: ${s.events}   simulated time: ${formatDuration(s.time_ns)}   seed: ${s.seed}`);
   const gen = Object.entries(s.generated).map(([k, v]) => `${k} ${v}`).join(', ');
   lines.push(`pairs generated: ${gen || 'none'}`);
   lines.push(`messages: ${s.messages.sent} sent, ${s.messages.delivered} arrived, ${s.messages.dropped} lost`);
-  if (s.delivered.length) {
+  const count = deliveredCount(w);
+  if (count) {
     let sum = 0;
     let min = Infinity;
-    for (const d of s.delivered) {
+    for (const d of eachDelivery(w)) {
       sum += d.fidelity;
       min = Math.min(min, d.fidelity);
     }
-    lines.push(`delivered: ${s.delivered.length} pairs, fidelity mean ${(sum / s.delivered.length).toFixed(4)}, min ${min.toFixed(4)}`);
+    lines.push(`delivered: ${count} ${count === 1 ? 'pair' : 'pairs'}, fidelity mean ${(sum / count).toFixed(4)}, min ${min.toFixed(4)}`);
   } else lines.push('delivered: none');
   for (const [node, rules] of Object.entries(s.fired)) {
     lines.push(`  ${node}: ${Object.entries(rules).map(([r, n]) => `${r} ×${n}`).join(', ')}`);
@@ -91,7 +94,7 @@ export const runCommand: CommandSpec = {
       if (io.stdoutIsTTY) io.stdout(`\r${line}`);
       else io.stderr(`${line}\n`);
     };
-    const { result, summary: s } = executeRun(prepared, {
+    const { result, stats } = executeRun(prepared, {
       onEvent: recorder
         ? (ev, w) => {
             completed++;
@@ -106,7 +109,11 @@ export const runCommand: CommandSpec = {
       io.writeFile(String(opts.record), recorder.finish(result.stop));
       io.stderr(`replay written to ${String(opts.record)}\n`);
     }
-    io.stdout(opts.json ? `${JSON.stringify(s, null, 2)}\n` : textReport(s));
+    // the head: the summary without its delivery records (then the statistics), and the
+    // records are read from the world as they are written, so memory does not grow with them
+    const s: RunSummary = { ...result.head, stats };
+    if (opts.json) writeSummaryJson(s, result.world, (chunk) => io.stdout(chunk));
+    else io.stdout(textReport(s, result.world));
     const failed = s.expectations.some((e) => !e.ok);
     return s.stop.reason === 'stall' || failed ? EXIT.problems : EXIT.ok;
   },

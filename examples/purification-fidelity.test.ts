@@ -28,6 +28,9 @@ describe('two-site purification', () => {
       expect(pair.fidelity).toBeGreaterThan(0.9);
       expect(pair.fidelity).toBeLessThan(purifiedWerner(0.9));
     }
+    // the run statistics summarise the same pairs
+    expect(summary.stats.fidelity.min).toBeGreaterThan(0.9);
+    expect(summary.stats.fidelity.p50).toBeGreaterThan(0.92);
   });
 
   it('holds on other seeds too', () => {

@@ -1,8 +1,7 @@
 /** Reading the input files and parsing the flags that several commands share. */
 import { InputError } from '../model/errors.js';
-import { loadInputs } from '../model/index.js';
-import type { NoiseModel, ProgramSet } from '../model/types.js';
 import { parseDuration } from '../model/units.js';
+import { loadText, type Inputs } from '../api/inputs.js';
 import type { CliIo } from './io.js';
 
 /** Reads a file, turning a missing or unreadable file into an input error that names it. */
@@ -10,9 +9,7 @@ export function readInput(io: CliIo, path: string, what: string): string {
   try {
     return io.readFile(path);
   } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : code === 'EACCES' ? 'permission denied' : String((e as Error).message);
-    throw new InputError({ code: 'file', file: path, message: `cannot read the ${what}: ${why}`, fix: `check the path of the ${what}` });
+    throw InputError.unreadable(path, what, e);
   }
 }
 
@@ -47,20 +44,25 @@ export function parseCount(v: unknown, flag: string): number | undefined {
   return Number(s);
 }
 
-export interface LoadedInputs {
-  readonly programSet: ProgramSet;
-  readonly noise: NoiseModel;
-}
-
-/** Reads and validates the program set and the optional noise model; `--seed` overrides the file's seed. */
-export function loadFiles(io: CliIo, netPath: string, noisePath: string | undefined, seed: number | undefined): LoadedInputs {
-  const netText = readInput(io, netPath, 'program set');
-  const noiseText = noisePath === undefined ? undefined : readInput(io, noisePath, 'noise model');
-  return loadInputs({ netFile: netPath, netText, noiseFile: noisePath, noiseText, seed });
+/** Reads the program set and the optional noise model through the CLI's file access and validates them as the library does. */
+export function readInputs(io: CliIo, netPath: string, noisePath: string | undefined): Inputs {
+  const programSet = readInput(io, netPath, 'program set');
+  const noise = noisePath === undefined ? undefined : readInput(io, noisePath, 'noise model');
+  return loadText({ programSet, noise, programSetFile: netPath, noiseFile: noisePath });
 }
 
 /** Collects a repeatable flag's values. */
 export function many(v: unknown): string[] {
   if (v === undefined) return [];
   return Array.isArray(v) ? v.map(String) : [String(v)];
+}
+
+/** Parses an event index flag such as `--from 12`: a whole number, 0 or more. */
+export function parseIndex(v: unknown, flag: string): number | undefined {
+  if (v === undefined) return undefined;
+  const s = String(v).trim();
+  if (!/^[0-9]+$/.test(s) || !Number.isSafeInteger(Number(s))) {
+    throw new InputError({ code: 'usage', field: flag, message: `expected an event index (0 or more), got "${s}"`, fix: `write e.g. ${flag} 12` });
+  }
+  return Number(s);
 }

@@ -2,12 +2,12 @@
  * Delivery records, kept compactly: column by column in one append-only log that every world
  * of a run shares. A world sees the log through a small frozen view (`count` records), so
  * appending never copies earlier records and a world's records never change. Each record
- * costs its id's bytes plus about 70 bytes, which keeps a run of millions of events flat in memory.
+ * costs its id's bytes plus about 80 bytes, which keeps a run of millions of events flat in memory.
  */
 import type { DeliveryRecord, World } from './types.js';
 
-/** Numbers stored per record: time, fidelity and the four Bell coefficients. */
-const NUMS = 6;
+/** Numbers stored per record: time, fidelity, the four Bell coefficients and the earliest birth behind the pair. */
+const NUMS = 7;
 
 const encoder = new TextEncoder();
 const decoder = new TextDecoder();
@@ -78,6 +78,7 @@ export class DeliveryLog {
       time_ns: n[o],
       fidelity: n[o + 1],
       bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]],
+      born_ns: n[o + 6],
     };
   }
 
@@ -92,7 +93,7 @@ export class DeliveryLog {
     return (
       this.idAt(k) === r.id && this.names[this.ends.at(2 * k)] === r.ends[0] && this.names[this.ends.at(2 * k + 1)] === r.ends[1] &&
       Object.is(n[o], r.time_ns) && Object.is(n[o + 1], r.fidelity) && Object.is(n[o + 2], r.bell[0]) &&
-      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3])
+      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3]) && Object.is(n[o + 6], r.born_ns)
     );
   }
 
@@ -106,6 +107,7 @@ export class DeliveryLog {
     n[o + 3] = r.bell[1];
     n[o + 4] = r.bell[2];
     n[o + 5] = r.bell[3];
+    n[o + 6] = r.born_ns;
     this.ends.push(this.name(r.ends[0]));
     this.ends.push(this.name(r.ends[1]));
     // UTF-8 takes at most three bytes per UTF-16 unit

@@ -13,7 +13,7 @@ import { evalIn, evalNode, truthy, type MatchContext } from './match.js';
 import { send } from './messages.js';
 import type { Net } from './net.js';
 import { heldHalf, removeItem, twoQubitState } from './pair-state.js';
-import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
+import { gate, measureQubit, traceOut, decayTo, earliestBirth } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
 import { addDelivery } from './delivered.js';
@@ -96,7 +96,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const rho = twoQubitState(ctx.net, w, a, b, t);
   if (trace) traced.bell(trace, rho.data);
   const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
-  const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
+  const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho), born_ns: earliestBirth(w, a, b) };
   addDelivery(w, record);
   push(ctx.ev, 'deliveries', record);
   traceOut(w, a);

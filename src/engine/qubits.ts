@@ -73,7 +73,7 @@ export function addCluster(w: World, qubits: readonly { node: string; link: stri
     ids.push(id);
   }
   // `rho` is a shared, frozen value (the link's pair state): the cluster copies it on first change
-  w.clusters.set(cid, { id: cid, qubits: ids, rho });
+  w.clusters.set(cid, { id: cid, qubits: ids, rho, born: w.time });
   return ids;
 }
 
@@ -81,6 +81,13 @@ function clusterOf(w: World, qid: number): Cluster {
   const q = w.qubits.get(qid);
   if (!q) throw new Error(`engine: unknown qubit ${qid}`);
   return w.clusters.get(q.cluster)!;
+}
+
+/** The herald time of the earliest link pair behind qubits a and b (ns). */
+export function earliestBirth(w: World, a: number, b: number): number {
+  const ba = w.clusters.get(w.qubits.get(a)!.cluster)!.born;
+  const bb = w.clusters.get(w.qubits.get(b)!.cluster)!.born;
+  return ba < bb ? ba : bb;
 }
 
 /** Applies memory decay to a qubit from where it was last brought up to date until `t`. */
@@ -113,6 +120,7 @@ export function merge(w: World, a: number, b: number, cap: number): Cluster {
   replace(ca, n, out);
   if (owned(cb.rho)) give(cb.rho.data);
   for (const q of cb.qubits) w.qubits.get(q)!.cluster = ca.id;
+  if (cb.born < ca.born) ca.born = cb.born;
   // a list made since the last finished world is this copy's own (see `owned`)
   if (Object.isFrozen(ca.qubits) || isDraft(ca.qubits)) ca.qubits = [...ca.qubits, ...cb.qubits];
   else for (const q of cb.qubits) ca.qubits.push(q);

@@ -39,7 +39,7 @@ export function initialWorld(net: Net, seed: number): World {
   };
   for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: [], inbox: [], arrivals: 0, fired: {} };
   for (const [id, info] of net.links) {
-    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0 };
+    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0, fullSince: -1, fullNs: 0 };
   }
   for (const id of [...net.links.keys()].sort()) maybeGenerate(net, w, id, 0);
   return w;

@@ -53,12 +53,12 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
   const links: World['links'] = {};
   for (const id in w.links) {
     const l = w.links[id];
-    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated };
+    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated, fullSince: l.fullSince, fullNs: l.fullNs };
   }
   const qubits: World['qubits'] = new Map();
   for (const [id, q] of w.qubits) qubits.set(id, { id: q.id, node: q.node, link: q.link, cluster: q.cluster, decayedTo: q.decayedTo, frozen: q.frozen });
   const clusters: World['clusters'] = new Map();
-  for (const [id, c] of w.clusters) clusters.set(id, { id: c.id, qubits: c.qubits, rho: c.rho });
+  for (const [id, c] of w.clusters) clusters.set(id, { id: c.id, qubits: c.qubits, rho: c.rho, born: c.born });
   const c = w.counters;
   return {
     time: w.time,
@@ -167,13 +167,13 @@ const sameNode = (a: NodeState, b: NodeState): boolean => {
 
 const sameLink = (a: LinkState, b: LinkState): boolean => {
   if (sameEntries(a.used, b.used)) b.used = a.used;
-  return a.generating === b.generating && a.generated === b.generated && a.used === b.used;
+  return a.generating === b.generating && a.generated === b.generated && a.used === b.used && a.fullSince === b.fullSince && a.fullNs === b.fullNs;
 };
 
 const sameQubit = (a: QubitState, b: QubitState): boolean =>
   a.node === b.node && a.link === b.link && a.cluster === b.cluster && a.decayedTo === b.decayedTo && a.frozen === b.frozen;
 
-const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
+const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && a.born === b.born && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
 
 /**
  * Gives a worked-on copy of `base` structural sharing with it: every part equal to base's

@@ -24,17 +24,17 @@ export interface Expectation {
 }
 
 /** Parses an expectation; throws InputError with the column and a fix when it does not parse. */
-export function parseExpectation(spec: string): Expectation {
+export function parseExpectation(spec: string, field = '--expect'): Expectation {
   try {
     const compiled = parseExpr(spec);
     const bad = compiled.calls.find((c) => !ALLOWED_CALLS.has(c));
     if (bad) {
-      throw new InputError({ code: 'usage', field: '--expect', message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...ALLOWED_CALLS].join(', ')}` });
+      throw new InputError({ code: 'usage', field, message: `unknown function "${bad}" in "${spec}"`, fix: `expectations may call: ${[...ALLOWED_CALLS].join(', ')}` });
     }
     return { spec, compiled };
   } catch (e) {
     if (e instanceof ExprError) {
-      throw new InputError({ code: 'expression', field: '--expect', message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
+      throw new InputError({ code: 'expression', field, message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
     }
     throw e;
   }

@@ -6,7 +6,7 @@
  * removed, cut short or emptied and then re-signed never verifies, since its stop no longer
  * matches what the run does.
  */
-import { Engine, quiescence, type EngineEvent, type World } from '../engine/index.js';
+import { Engine, ProgramError, quiescence, type EngineEvent, type World } from '../engine/index.js';
 import { loadInputs } from '../model/index.js';
 import { formatDuration, parseDuration } from '../model/units.js';
 import { breakpointScanner, parseBreakpoint } from './breakpoints.js';
@@ -91,6 +91,15 @@ function v1Limits(r: ReplayFile): { events?: number; untilNs?: number } {
  */
 export function verifyReplay(r: ReplayFile): VerifyResult {
   const engine = engineFromReplay(r);
+  try {
+    return verifyWith(engine, r);
+  } catch (e) {
+    // a program error names the rule; one from a role also names where the role is written
+    throw e instanceof ProgramError ? e.traced(engine.net.rules) : e;
+  }
+}
+
+function verifyWith(engine: Engine, r: ReplayFile): VerifyResult {
   const net = engine.net;
   let world: World = engine.initial(r.seed);
   const chain = new DigestChain();
@@ -130,7 +139,7 @@ export function verifyReplay(r: ReplayFile): VerifyResult {
   }
   const partial = r.stop.reason === 'crash';
   if (!divergence && !partial) divergence = checkStop(r, engine, world, checked, chain.hex, hitAt);
-  const expectations = checkExpectations(engine, world, r.expectations.map(parseExpectation));
+  const expectations = checkExpectations(engine, world, r.expectations.map((e) => parseExpectation(e)));
   return { ok: divergence === null, checked, divergence, expectations, partial };
 }
 

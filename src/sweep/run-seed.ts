@@ -25,7 +25,7 @@ export function prepareJob(job: SweepJob): PreparedJob {
   const { programSet, noise } = loadInputs({ netFile: job.netFile, netText: job.netText, noiseFile: job.noiseFile, noiseText: job.noiseText });
   const engine = new Engine(programSet, noise);
   const breakpoints = job.breaks.map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
-  const expectations = job.expects.map(parseExpectation);
+  const expectations = job.expects.map((e) => parseExpectation(e));
   return { job, engine, breakpoints, expectations };
 }
 

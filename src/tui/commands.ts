@@ -9,17 +9,10 @@ import { InputError } from '../model/errors.js';
 import { parseDuration } from '../model/units.js';
 import type { LongOp } from '../session/long-op.js';
 import type { Session, SessionStop } from '../session/session.js';
+import { CommandError } from './command-error.js';
+import { chartCommand, diffCommand } from './compare-commands.js';
 
-/** A mistyped or impossible command, with a suggestion. */
-export class CommandError extends Error {
-  constructor(
-    message: string,
-    readonly fix?: string,
-  ) {
-    super(message);
-    this.name = 'CommandError';
-  }
-}
+export { CommandError } from './command-error.js';
 
 /** What a command may act on: the session and the debugger around it. */
 export interface CommandTarget {
@@ -29,6 +22,10 @@ export interface CommandTarget {
   selectSite(site: string): void;
   /** Writes the replay file; throws when the debugger was opened without a file system. */
   saveReplay(path: string): void;
+  /** Writes a text file (the chart); throws a CommandError when it cannot. */
+  writeText(path: string, text: string): void;
+  /** Reads a text file (a replay to compare with); throws a CommandError when it cannot. */
+  readText(path: string): string;
   setAutoplay(rate: number | null): void;
   /** Starts a continue that runs in slices and reports when it stops. */
   continueForward(): void;
@@ -167,6 +164,8 @@ export const COMMANDS: readonly CommandDef[] = [
     t.saveReplay(r);
     return `replay written to ${r}`;
   } },
+  { word: 'chart', args: 'FILE', does: 'write a space-time chart (SVG) of every event computed so far', complete: 'none', run: chartCommand },
+  { word: 'diff', args: 'FILE', does: 'compare the run with a replay file and go to the first event where they part', complete: 'none', run: diffCommand },
   { word: 'autoplay', args: 'RATE | off', does: 'step on its own at RATE events per second (Space pauses)', complete: 'none', run: (t, r) => {
     if (r === 'off') {
       t.setAutoplay(null);

@@ -24,8 +24,10 @@ export interface ControllerOptions {
   readonly colour?: boolean;
   /** Start in teaching mode, stepping this many events per second. */
   readonly autoplay?: number;
-  /** Writes a file (the `save` command); absent, `save` says it cannot. */
+  /** Writes a file (the `save` and `chart` commands); absent, they say they cannot. */
   readonly writeFile?: (path: string, text: string) => void;
+  /** Reads a file (the `diff` command); absent, it says it cannot. */
+  readonly readFile?: (path: string) => string;
   /** Runs long work after the "running…" frame is drawn (default setImmediate). */
   readonly defer?: (fn: () => void) => void;
   /** Whole events kept for the timeline. */
@@ -456,6 +458,24 @@ export class Controller implements CommandTarget {
       this.opts.writeFile(path, this.session.exportReplay());
     } catch (e) {
       throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the folder exists and is writable');
+    }
+  }
+
+  writeText(path: string, text: string): void {
+    if (!this.opts.writeFile) throw new CommandError('this debugger cannot write files', 'open it with bellstep debug to write files');
+    try {
+      this.opts.writeFile(path, text);
+    } catch (e) {
+      throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the folder exists and is writable');
+    }
+  }
+
+  readText(path: string): string {
+    if (!this.opts.readFile) throw new CommandError('this debugger cannot read files', 'open it with bellstep debug to compare with a replay file');
+    try {
+      return this.opts.readFile(path);
+    } catch (e) {
+      throw new CommandError(`could not read ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the path of the replay file');
     }
   }
 

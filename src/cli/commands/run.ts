@@ -1,13 +1,14 @@
 /** `bellstep run`: the headless run that CI and scripts use (FORMAT.md §5, §6). */
-import { deliveredCount, eachDelivery, Engine, type World } from '../../engine/index.js';
+import { executeRun, prepareRun, type RunPlan, type RunSummary } from '../../api/run.js';
+import { deliveredCount, eachDelivery, type World } from '../../engine/index.js';
 import { formatDuration } from '../../model/units.js';
-import { parseBreakpoint } from '../../session/breakpoints.js';
-import { DEFAULT_MAX_EVENTS, describeExpectations, parseExpectation, runHeadless } from '../../session/run.js';
-import { writeSummaryJson, type RunSummary } from '../../session/summary.js';
+import { statsTable } from '../../report/stats-text.js';
+import { DEFAULT_MAX_EVENTS, describeExpectations, runHeadless } from '../../session/run.js';
+import { writeSummaryJson } from '../../session/summary.js';
 import { Recorder } from '../../session/replay.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
 import { checkFileOutput, checkNotInput, openOutput } from '../outputs.js';
-import { loadFiles, many, parseCount, parseDurationFlag, parseSeed } from '../inputs.js';
+import { many, parseCount, parseDurationFlag, parseSeed, readInputs } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 function textReport(s: RunSummary, w: World): string {
@@ -36,6 +37,7 @@ function textReport(s: RunSummary, w: World): string {
       for (const e of entries) lines.push(`  ${node}.${e.rule}${e.from ? ` from ${e.from}` : ''}: ${e.reason}`);
     }
   }
+  lines.push('', ...statsTable(s.stats));
   if (s.expectations.length) lines.push('', 'expectations:', ...describeExpectations(s.expectations).map((l) => `  ${l}`));
   return lines.join('\n') + '\n';
 }
@@ -52,22 +54,24 @@ export const runCommand: CommandSpec = {
     { flags: '--break <EXPR>', description: 'stop when this breakpoint hits (repeatable)', repeatable: true },
     { flags: '--expect <EXPR>', description: 'check this expression at the end; exit 1 if false (repeatable)', repeatable: true },
     { flags: '--record <R.json>', description: 'write a replay file of the run' },
-    { flags: '--json', description: 'print the run summary as JSON' },
+    { flags: '--json', description: 'print the run summary as JSON (bellstep/run-summary@1, with run statistics)' },
   ],
   async run({ io }, [netPath], opts) {
-    const seedFlag = parseSeed(opts.seed);
-    const untilNs = parseDurationFlag(opts.until, '--until');
-    const maxEvents = parseCount(opts.events, '--events');
-    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
-    const engine = new Engine(programSet, noise);
-    const breakpoints = many(opts.break).map((b, i) => parseBreakpoint(engine.net, b, i + 1, '--break'));
-    const expectations = many(opts.expect).map(parseExpectation);
-    const seed = noise.seed;
+    const plan: RunPlan = {
+      seed: parseSeed(opts.seed),
+      untilNs: parseDurationFlag(opts.until, '--until'),
+      maxEvents: parseCount(opts.events, '--events'),
+      breaks: many(opts.break),
+      expects: many(opts.expect),
+      names: { break: '--break', expect: '--expect' },
+    };
+    const prepared = prepareRun(readInputs(io, netPath, opts.noise as string | undefined), plan);
+    const { engine, seed } = prepared;
     const meta = {
       seed,
-      breakpoints: breakpoints.map((b) => b.spec),
-      expectations: expectations.map((e) => e.spec),
-      limits: { until_ns: untilNs ?? null, events: maxEvents ?? (untilNs === undefined ? DEFAULT_MAX_EVENTS : null) },
+      breakpoints: prepared.breakpoints.map((b) => b.spec),
+      expectations: prepared.expectations.map((e) => e.spec),
+      limits: { until_ns: plan.untilNs ?? null, events: plan.maxEvents ?? (plan.untilNs === undefined ? DEFAULT_MAX_EVENTS : null) },
     };
     const recordPath = opts.record === undefined ? undefined : String(opts.record);
     if (recordPath !== undefined) {
@@ -105,12 +109,7 @@ export const runCommand: CommandSpec = {
       if (io.stdoutIsTTY) io.stdout(`\r${line}`);
       else io.stderr(`${line}\n`);
     };
-    const result = runHeadless(engine, {
-      seed,
-      untilNs,
-      maxEvents,
-      breakpoints,
-      expectations,
+    const { result, stats } = executeRun(prepared, {
       onEvent: recorder
         ? (ev, w) => {
             completed++;
@@ -126,9 +125,9 @@ export const runCommand: CommandSpec = {
       file.close();
       io.stderr(`replay written to ${recordPath}\n`);
     }
-    // the head: the summary without its delivery records, which are read from the world as
-    // they are written, so that memory does not grow with the number of pairs delivered
-    const s = result.head;
+    // the head: the summary without its delivery records (then the statistics), and the
+    // records are read from the world as they are written, so memory does not grow with them
+    const s: RunSummary = { ...result.head, stats };
     if (opts.json) writeSummaryJson(s, result.world, (chunk) => io.stdout(chunk));
     else io.stdout(textReport(s, result.world));
     const failed = s.expectations.some((e) => !e.ok);

@@ -20,6 +20,8 @@ export interface ReplayEvents extends Iterable<ReplayEvent> {
   kind(i: number): string;
   /** The one-line summary, when the file kept it (an `@2` file keeps the last events' only). */
   summary(i: number): string | null;
+  /** The digest as two 32-bit halves (what a re-run compares against). */
+  digestHalves(i: number): [number, number];
 }
 
 /** Columns in growing chunks: what a `@2` file decodes into, and what a recorder keeps. */
@@ -147,6 +149,10 @@ export class ListEvents implements ReplayEvents {
 
   summary(i: number): string | null {
     return this.list[i].summary;
+  }
+
+  digestHalves(i: number): [number, number] {
+    return digestHalves(this.list[i].digest);
   }
 
   [Symbol.iterator](): Iterator<ReplayEvent> {

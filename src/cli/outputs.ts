@@ -63,3 +63,15 @@ export function openOutput(io: CliIo, path: string, flag: string): FileWriter {
     throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: ${why}`, fix: `give ${flag} a path you can write` });
   }
 }
+
+/**
+ * Writes a whole file, refusing at once a path that is not a regular file: writing to a pipe
+ * or a device could block the process (and with it the debugger and its signal handlers)
+ * until something reads it. Throws an Error that says what is wrong.
+ */
+export function writeRegularFile(io: CliIo, path: string, text: string): void {
+  const kind = io.pathKind(path);
+  if (kind === 'dir') throw new Error(`${path} is a directory`);
+  if (kind === 'other') throw new Error(`${path} is not a regular file (a pipe or a device); bellstep writes only to files`);
+  io.writeFile(path, text);
+}

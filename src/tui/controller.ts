@@ -457,7 +457,7 @@ export class Controller implements CommandTarget {
     try {
       this.opts.writeFile(path, this.session.exportReplay());
     } catch (e) {
-      throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the folder exists and is writable');
+      throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'give a path to a regular file in a folder you can write');
     }
   }
 

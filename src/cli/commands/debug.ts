@@ -9,6 +9,7 @@ import { InputError } from '../../model/errors.js';
 import { parseReplay } from '../../session/replay.js';
 import { engineFromReplay } from '../../session/verify.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
+import { writeRegularFile } from '../outputs.js';
 import type { CliIo } from '../io.js';
 import { many, parseCount, parseSeed, readInput, readInputs } from '../inputs.js';
 import { HISTORY_DEFAULTS, type HistoryOptions } from '../../session/history.js';
@@ -74,12 +75,12 @@ export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions)
   // before Ink is loaded
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
-  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => io.writeFile(p, t), readFile: (p) => io.readFile(p) });
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: (p, t) => writeRegularFile(io, p, t), readFile: (p) => io.readFile(p) });
   // a far --at is a long jump: it runs in slices once the screen is up, with its progress shown
   if (opts.at !== undefined) controller.runLong(session.startGoto(opts.at + 1));
   onCrashSaveReplay((why) => {
     const path = crashReplayPath(io);
-    io.writeFile(path, session.exportReplay({ reason: 'crash', detail: `automatic replay after an internal error in the debugger: ${why}` }));
+    writeRegularFile(io, path, session.exportReplay({ reason: 'crash', detail: `automatic replay after an internal error in the debugger: ${why}` }));
     return path;
   });
   // on a crash this throws with the hook still set, so the CLI's report can save the replay

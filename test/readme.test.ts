@@ -56,4 +56,34 @@ describe('README', () => {
     expect(r.code).toBe(1);
     expect(r.stdout).toContain('waits for a "parity" message from weir about pair kiln~weir#1; the inbox holds one about kiln~weir#2');
   });
+
+  it('shows a chart of the nested-repeater demo that the quoted commands render byte for byte', async () => {
+    const section = readme.slice(readme.indexOf('## Pictures'));
+    const [run, chart] = /```\n(npx bellstep run demos\/nested-repeater\/.+)\n(npx bellstep chart .+)\n```/.exec(section)!.slice(1);
+    const runArgv = run.split(' ').slice(2);
+    const files = Object.fromEntries(runArgv.filter((a) => a.endsWith('.yaml')).map((p) => [p, readFileSync(p, 'utf8')]));
+    const recorded = await runCli(runArgv, files);
+    expect(recorded.code).toBe(0);
+    const drawn = await runCli(chart.split(' ').slice(2), Object.fromEntries(recorded.files));
+    expect(drawn.code).toBe(0);
+    const out = chart.split(' ').at(-1)!;
+    expect(section).toContain(`](${out})`);
+    // when the chart's look or the engine changes on purpose, run the two commands again and commit the picture
+    expect(drawn.files.get(out)).toBe(readFileSync(out, 'utf8'));
+  });
+
+  it('runs the diff example and prints the lines it quotes', async () => {
+    const section = readme.slice(readme.indexOf('## Comparing runs'));
+    const fault = /```yaml\n([\s\S]*?)```/.exec(section)![1];
+    const noise = 'demos/nested-repeater/repeater.noise.yaml';
+    const files: Record<string, string> = { 'demos/nested-repeater/repeater.net.yaml': readFileSync('demos/nested-repeater/repeater.net.yaml', 'utf8'), [noise]: readFileSync(noise, 'utf8') };
+    files['lossy.noise.yaml'] = `${files[noise]}${fault}`;
+    const commands = /```\n(npx bellstep run [\s\S]*?)```/.exec(section)![1].trim().split('\n').map((l) => l.split(' ').slice(2));
+    let last = await runCli(commands[0], files);
+    for (const argv of commands.slice(1)) last = await runCli(argv, { ...files, ...Object.fromEntries(last.files) });
+    expect(last.code).toBe(1);
+    const quoted = /It exits 1 and prints:\n\n```\n([\s\S]*?)```/.exec(section)![1];
+    expect(last.stdout).toBe(quoted);
+  });
 });
+

@@ -6,7 +6,7 @@
  */
 import { dirname, resolve } from 'node:path';
 import { InputError } from '../model/errors.js';
-import type { CliIo, PathInfo } from './io.js';
+import type { CliIo, FileWriter, PathInfo } from './io.js';
 
 function usage(path: string, flag: string, message: string, fix: string): InputError {
   return new InputError({ code: 'usage', file: path, field: flag, message, fix });
@@ -57,12 +57,11 @@ export function checkFileOutput(io: CliIo, path: string, flag: string, example =
     case 'directory':
       throw usage(path, flag, `${path} is a directory`, `give ${flag} a file name, e.g. ${flag} ${example}`);
     case 'file':
-    case 'device':
-    case 'fifo':
       if (!info.writable) throw usage(path, flag, `cannot write ${path}: permission denied`, `give ${flag} a path you can write`);
       return;
     default:
-      throw usage(path, flag, `${path} is not a file that can be written`, `give ${flag} a file name, e.g. ${flag} ${example}`);
+      // writing to a pipe or a device could block until something reads it
+      throw usage(path, flag, `${path} is not a regular file (a pipe or a device); bellstep writes only to files`, `give ${flag} a file name, e.g. ${flag} ${example}`);
   }
 }
 
@@ -95,4 +94,31 @@ export function writeOutput(io: CliIo, path: string, text: string, flag: string)
       : (e as Error).message;
     throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: ${why}`, fix: `give ${flag} a path you can write` });
   }
+}
+
+/** Opens an output to write in pieces; a failure is an input error naming the path and the flag. */
+export function openOutput(io: CliIo, path: string, flag: string): FileWriter {
+  const kind = io.pathKind(path);
+  if (kind === 'dir' || kind === 'other') {
+    throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: it is ${kind === 'dir' ? 'a directory' : 'not a regular file (a pipe or a device)'}`, fix: `give ${flag} a file path` });
+  }
+  try {
+    return io.openWrite(path);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'ENOTDIR' ? 'a part of the path is a file' : code === 'EROFS' ? 'read-only file system' : (e as Error).message;
+    throw new InputError({ code: 'file', file: path, field: flag, message: `cannot write ${path}: ${why}`, fix: `give ${flag} a path you can write` });
+  }
+}
+
+/**
+ * Writes a whole file, refusing at once a path that is not a regular file: writing to a pipe
+ * or a device could block the process (and with it the debugger and its signal handlers)
+ * until something reads it. Throws an Error that says what is wrong.
+ */
+export function writeRegularFile(io: CliIo, path: string, text: string): void {
+  const kind = io.pathKind(path);
+  if (kind === 'dir') throw new Error(`${path} is a directory`);
+  if (kind === 'other') throw new Error(`${path} is not a regular file (a pipe or a device); bellstep writes only to files`);
+  io.writeFile(path, text);
 }

@@ -2,72 +2,140 @@
  * Delivery records, kept compactly: column by column in one append-only log that every world
  * of a run shares. A world sees the log through a small frozen view (`count` records), so
  * appending never copies earlier records and a world's records never change. Each record
- * costs its id plus about 60 bytes, which keeps a run of millions of events flat in memory.
+ * costs its id's bytes plus about 80 bytes, which keeps a run of millions of events flat in memory.
  */
 import type { DeliveryRecord, World } from './types.js';
 
-/** Numbers stored per record: time, fidelity and the four Bell coefficients. */
-const NUMS = 6;
+/** Numbers stored per record: time, fidelity, the four Bell coefficients and the earliest birth behind the pair. */
+const NUMS = 7;
+
+const encoder = new TextEncoder();
+const decoder = new TextDecoder();
+
+/** Entries per chunk of a chunked column: columns grow by whole chunks, never by copying. */
+const CHUNK = 4096;
+
+/** A growable list of 32-bit integers in fixed-size typed-array chunks (no object per entry, no copy on growth). */
+class IntList {
+  length = 0;
+  private readonly chunks: Int32Array[] = [];
+
+  push(x: number): void {
+    const c = this.length >>> 12;
+    if (c === this.chunks.length) this.chunks.push(new Int32Array(CHUNK));
+    this.chunks[c][this.length & (CHUNK - 1)] = x;
+    this.length++;
+  }
+
+  at(i: number): number {
+    return this.chunks[i >>> 12][i & (CHUNK - 1)];
+  }
+}
+
+/** A growable list of 64-bit floats, `width` per record, in fixed-size chunks of records. */
+class FloatColumns {
+  private readonly chunks: Float64Array[] = [];
+
+  constructor(private readonly width: number) {}
+
+  /** The chunk holding record k (created when k is the first record past the end), and the record's offset in it. */
+  slot(k: number): [Float64Array, number] {
+    const c = k >>> 12;
+    if (c === this.chunks.length) this.chunks.push(new Float64Array(CHUNK * this.width));
+    return [this.chunks[c], (k & (CHUNK - 1)) * this.width];
+  }
+}
 
 /**
  * The shared log. Records are only ever appended; a world that is behind the log's head and
  * delivers a different record than the one stored next (a world edited by hand, or a run
- * from another start) gets a log of its own, so no world's records change under it.
+ * from another start) gets a log of its own, so no world's records change under it. Records
+ * live in typed arrays (numbers, ends as indices into a table of names, ids as UTF-8 bytes),
+ * outside the garbage-collected heap: a million-event run keeps them in a few megabytes.
  */
 export class DeliveryLog {
   /** Records stored. */
   length = 0;
-  private ids: string[] = [];
-  private ends: string[] = [];
-  private nums = new Float64Array(NUMS * 64);
+  private readonly nums = new FloatColumns(NUMS);
+  private readonly ends = new IntList();
+  private readonly names: string[] = [];
+  private readonly nameIndex = new Map<string, number>();
+  /** Ids as UTF-8, in chunks of at least CHUNK_BYTES; a record's id never spans two chunks. */
+  private readonly idChunks: Uint8Array[] = [];
+  private idUsed = 0;
+  /** Each record's id as (chunk, start, end) in `idChunks`. */
+  private readonly idAt3 = new IntList();
   /** Indices of the records with each pair of ends ("a b", sorted) and with each end. */
-  private readonly byEnds = new Map<string, number[]>();
-  private readonly byNode = new Map<string, number[]>();
+  private readonly byEnds = new Map<string, IntList>();
+  private readonly byNode = new Map<string, IntList>();
 
   /** Record k (k < length). */
   get(k: number): DeliveryRecord {
-    const o = NUMS * k;
-    const n = this.nums;
-    return { id: this.ids[k], ends: [this.ends[2 * k], this.ends[2 * k + 1]], time_ns: n[o], fidelity: n[o + 1], bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]] };
+    const [n, o] = this.nums.slot(k);
+    return {
+      id: this.idAt(k),
+      ends: [this.names[this.ends.at(2 * k)], this.names[this.ends.at(2 * k + 1)]],
+      time_ns: n[o],
+      fidelity: n[o + 1],
+      bell: [n[o + 2], n[o + 3], n[o + 4], n[o + 5]],
+      born_ns: n[o + 6],
+    };
   }
 
   /** The id of record k. */
   idAt(k: number): string {
-    return this.ids[k];
+    return decoder.decode(this.idChunks[this.idAt3.at(3 * k)].subarray(this.idAt3.at(3 * k + 1), this.idAt3.at(3 * k + 2)));
   }
 
   /** Whether record k equals `r`, bit for bit. */
   matches(k: number, r: DeliveryRecord): boolean {
-    const o = NUMS * k;
-    const n = this.nums;
+    const [n, o] = this.nums.slot(k);
     return (
-      this.ids[k] === r.id && this.ends[2 * k] === r.ends[0] && this.ends[2 * k + 1] === r.ends[1] &&
+      this.idAt(k) === r.id && this.names[this.ends.at(2 * k)] === r.ends[0] && this.names[this.ends.at(2 * k + 1)] === r.ends[1] &&
       Object.is(n[o], r.time_ns) && Object.is(n[o + 1], r.fidelity) && Object.is(n[o + 2], r.bell[0]) &&
-      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3])
+      Object.is(n[o + 3], r.bell[1]) && Object.is(n[o + 4], r.bell[2]) && Object.is(n[o + 5], r.bell[3]) && Object.is(n[o + 6], r.born_ns)
     );
   }
 
   /** Appends a record. */
   push(r: DeliveryRecord): void {
     const k = this.length++;
-    if (NUMS * this.length > this.nums.length) {
-      const grown = new Float64Array(this.nums.length * 2);
-      grown.set(this.nums);
-      this.nums = grown;
-    }
-    const o = NUMS * k;
-    const n = this.nums;
+    const [n, o] = this.nums.slot(k);
     n[o] = r.time_ns;
     n[o + 1] = r.fidelity;
     n[o + 2] = r.bell[0];
     n[o + 3] = r.bell[1];
     n[o + 4] = r.bell[2];
     n[o + 5] = r.bell[3];
-    this.ids.push(r.id);
-    this.ends.push(r.ends[0], r.ends[1]);
+    n[o + 6] = r.born_ns;
+    this.ends.push(this.name(r.ends[0]));
+    this.ends.push(this.name(r.ends[1]));
+    // UTF-8 takes at most three bytes per UTF-16 unit
+    const need = 3 * r.id.length;
+    let chunk = this.idChunks[this.idChunks.length - 1];
+    if (chunk === undefined || this.idUsed + need > chunk.length) {
+      chunk = new Uint8Array(Math.max(CHUNK_BYTES, need));
+      this.idChunks.push(chunk);
+      this.idUsed = 0;
+    }
+    const { written } = encoder.encodeInto(r.id, chunk.subarray(this.idUsed));
+    this.idAt3.push(this.idChunks.length - 1);
+    this.idAt3.push(this.idUsed);
+    this.idAt3.push(this.idUsed + written);
+    this.idUsed += written;
     indexAt(this.byEnds, `${r.ends[0]} ${r.ends[1]}`, k);
     indexAt(this.byNode, r.ends[0], k);
     if (r.ends[1] !== r.ends[0]) indexAt(this.byNode, r.ends[1], k);
+  }
+
+  private name(s: string): number {
+    let i = this.nameIndex.get(s);
+    if (i === undefined) {
+      i = this.names.length;
+      this.names.push(s);
+      this.nameIndex.set(s, i);
+    }
+    return i;
   }
 
   /** A log holding this one's first `count` records. */
@@ -84,19 +152,25 @@ export class DeliveryLog {
   }
 }
 
-function indexAt(m: Map<string, number[]>, key: string, k: number): void {
-  const list = m.get(key);
-  if (list === undefined) m.set(key, [k]);
-  else list.push(k);
+/** Bytes per chunk of ids. */
+const CHUNK_BYTES = 1 << 16;
+
+function indexAt(m: Map<string, IntList>, key: string, k: number): void {
+  let list = m.get(key);
+  if (list === undefined) {
+    list = new IntList();
+    m.set(key, list);
+  }
+  list.push(k);
 }
 
 /** How many entries of an ascending list are below n. */
-function below(list: readonly number[], n: number): number {
+function below(list: IntList, n: number): number {
   let lo = 0;
   let hi = list.length;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    if (list[mid] < n) lo = mid + 1;
+    if (list.at(mid) < n) lo = mid + 1;
     else hi = mid;
   }
   return lo;

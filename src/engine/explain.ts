@@ -111,7 +111,7 @@ function readings(ast: ExprNode, scope: RuleScope, source: string): string[] {
 }
 
 function inflightNote(w: World, to: string, kind: string, from: string | undefined): string {
-  const flying = Object.values(w.inflight).filter((m) => m.to === to && m.kind === kind && (from === undefined || m.from === from));
+  const flying = [...w.inflight.values()].filter((m) => m.to === to && m.kind === kind && (from === undefined || m.from === from));
   if (flying.length === 0) return `no ${kind} is in flight to ${to}`;
   const soonest = Math.min(...flying.map((m) => m.arrives));
   return `${flying.length} ${kind} in flight, the first arriving in ${formatDuration(soonest - w.time)}`;

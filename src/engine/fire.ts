@@ -12,8 +12,8 @@ import { draw, releaseSlot } from './links.js';
 import { evalIn, evalNode, truthy, type MatchContext } from './match.js';
 import { send } from './messages.js';
 import type { Net } from './net.js';
-import { heldHalf, twoQubitState } from './pair-state.js';
-import { gate, measureQubit, traceOut, decayTo } from './qubits.js';
+import { heldHalf, removeItem, twoQubitState } from './pair-state.js';
+import { gate, measureQubit, traceOut, decayTo, earliestBirth } from './qubits.js';
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import type { EngineEvent, FireRecord, PairRecord } from './types.js';
 import { addDelivery } from './delivered.js';
@@ -68,8 +68,7 @@ function release(ctx: BodyContext, name: string, rec: PairRecord): void {
   ctx.scope.bindings.dirty = true;
   ctx.scope.bindings.released.set(name, rec);
   ctx.scope.bindings.releasedAt.set(name, ctx.scope.now);
-  const i = node.pairs.indexOf(rec);
-  if (i >= 0) node.pairs.splice(i, 1);
+  removeItem(node.pairs, rec);
   releaseSlot(ctx.net, ctx.w, rec.link, ctx.node, ctx.scope.now);
 }
 
@@ -83,7 +82,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const w = ctx.w;
   const t = ctx.scope.now;
   decayTo(ctx.net, w, rec.qubit, t);
-  w.qubits[rec.qubit].frozen = true;
+  w.qubits.get(rec.qubit)!.frozen = true;
   release(ctx, name, rec);
   push(ctx.ev, 'delivers', { node: ctx.node, pair: rec.id });
   // own entries only: a pair id chosen by a program may be a name every object has ("toString")
@@ -98,7 +97,7 @@ function deliver(ctx: BodyContext, name: string, rec: PairRecord): void {
   const rho = twoQubitState(ctx.net, w, a, b, t);
   if (trace) traced.bell(trace, rho.data);
   const ends: [string, string] = ctx.node <= other.node ? [ctx.node, other.node] : [other.node, ctx.node];
-  const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };
+  const record = { id: rec.id, ends, time_ns: t, fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho), born_ns: earliestBirth(w, a, b) };
   addDelivery(w, record);
   push(ctx.ev, 'deliveries', record);
   traceOut(w, a);

@@ -20,13 +20,25 @@ export function freeSlots(net: Net, w: World, link: string, node: string): numbe
   return net.links.get(link)!.def.slots - w.links[link].used[node];
 }
 
-/** Starts attempts on a link at time t if it is idle and both ends have a free slot. */
+/**
+ * Starts attempts on a link at time t if it is idle and both ends have a free slot. A link
+ * that cannot for want of a slot notes since when, and adds the time to `fullNs` once it
+ * can again (the run statistics' `slots_full_share`).
+ */
 export function maybeGenerate(net: Net, w: World, link: string, t: number): void {
   const info = net.links.get(link)!;
   const state = w.links[link];
   if (state.generating || info.pSuccess <= 0) return;
   const [a, b] = info.def.ends;
-  if (freeSlots(net, w, link, a) <= 0 || freeSlots(net, w, link, b) <= 0) return;
+  if (freeSlots(net, w, link, a) <= 0 || freeSlots(net, w, link, b) <= 0) {
+    if (state.fullSince < 0) state.fullSince = t;
+    return;
+  }
+  if (state.fullSince >= 0) {
+    // a slot freed by an operation that ends later than the event still counts from its end
+    if (t > state.fullSince) state.fullNs += t - state.fullSince;
+    state.fullSince = -1;
+  }
   const k = geometricAttempts(info.pSuccess, draw(w));
   if (!Number.isFinite(k)) return;
   const emitted = t + (k - 1) * info.periodNs;

@@ -80,7 +80,7 @@ export function truthy(v: Value, expr: Expr, node: string, rule: string): boolea
 }
 
 /** Free halves at the node matching a `have` guard's partner, stage and age window, in pick order. */
-export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: ReadonlySet<number>, into: PairRecord[] = []): PairRecord[] {
+export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string, used: { has(q: number): boolean }, into: PairRecord[] = []): PairRecord[] {
   const now = ctx.scope.now;
   const out = into;
   out.length = 0;
@@ -101,7 +101,7 @@ const oldestFirst = (a: PairRecord, b: PairRecord): number => a.order - b.order;
 const newestFirst = (a: PairRecord, b: PairRecord): number => b.order - a.order;
 
 /** Messages in the inbox of the given kind (and sender), oldest first. */
-export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: ReadonlySet<number>): Message[] {
+export function gotCandidates(ctx: MatchContext, kind: string, from: string | undefined, used: { has(m: number): boolean }): Message[] {
   return ctx.w.nodes[ctx.node].inbox.filter(
     (m) => m.kind === kind && (from === undefined || m.from === from) && !used.has(m.id),
   );

@@ -47,7 +47,7 @@ export function send(net: Net, w: World, msg: Outgoing, t: number): SendRecord {
     return rec;
   }
   // built key by key: a spread followed by more keys is slow in V8 here (DEVELOPERS.md)
-  w.inflight[id] = { id, from: msg.from, to: msg.to, kind: msg.kind, pair: msg.pair, data: msg.data, sent: t, arrives };
+  w.inflight.set(id, { id, from: msg.from, to: msg.to, kind: msg.kind, pair: msg.pair, data: msg.data, sent: t, arrives });
   heapPush(w.queue, { time: arrives, seq: w.seq++, type: 'arrive', message: id });
   return { id, from: msg.from, to: msg.to, kind: msg.kind, pair: msg.pair, sent: t, arrives };
 }
@@ -58,8 +58,8 @@ function describe(f: { from?: string; to?: string; msgKind?: string }): string {
 
 /** A message reaches its receiver's inbox. */
 export function arrive(w: World, id: number): Message {
-  const m = w.inflight[id];
-  delete w.inflight[id];
+  const m = w.inflight.get(id)!;
+  w.inflight.delete(id);
   w.nodes[m.to].inbox.push(m);
   w.counters.arrived++;
   return m;

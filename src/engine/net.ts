@@ -62,15 +62,22 @@ export class Net {
   readonly qubitsAt: ReadonlyMap<string, number>;
   /** Fiber speed (m/s), used for heralds and classical messages alike. */
   readonly speed: number;
-  private readonly distCache = new Map<string, Map<string, number>>();
-  /** One reusable expression scope per node for the rule interpreter (a cache, not state). */
-  readonly scopes = new Map<string, RuleScope>();
+  /** Settled shortest distances from each node that has asked (a search stops once its target is settled). */
+  private readonly distCache = new Map<string, Map<number, number>>();
+  /** Each node's position in `nodeIds`. */
+  private readonly index = new Map<string, number>();
+  /**
+   * The rule interpreter's one reusable expression scope (a cache, not state): nodes are
+   * scanned one at a time, so they share it, which keeps a large network's memory small.
+   */
+  scope: RuleScope | undefined;
 
   constructor(programSet: ProgramSet, noise: NoiseModel) {
     this.programSet = programSet;
     this.noise = noise;
     this.nodeIds = programSet.nodes.map((n) => n.id).sort();
     this.nodeSet = new Set(this.nodeIds);
+    this.nodeIds.forEach((id, i) => this.index.set(id, i));
     this.speed = noise.defaults.classical.speedMPerS;
     this.qubitsAt = new Map(programSet.nodes.map((n) => [n.id, n.qubits]));
     const links = new Map<string, LinkInfo>();
@@ -136,15 +143,25 @@ export class Net {
     return n;
   }
 
-  /** Shortest fiber distance in metres, or Infinity when there is no path (Dijkstra, cached per source). */
+  /**
+   * Shortest fiber distance in metres, or Infinity when there is no path. Distances from a
+   * node are cached as its searches settle them; a search runs only as far as its target.
+   */
   distance(from: string, to: string): number {
     if (from === to) return 0;
+    const j = this.index.get(to);
+    if (j === undefined) return Infinity;
     let row = this.distCache.get(from);
-    if (!row) {
-      row = this.dijkstra(from);
+    if (row === undefined) {
+      row = new Map();
       this.distCache.set(from, row);
     }
-    return row.get(to) ?? Infinity;
+    let d = row.get(j);
+    if (d === undefined) {
+      d = this.dijkstra(from, j, row);
+      row.set(j, d);
+    }
+    return d;
   }
 
   /** Classical delay from one node to another (ns), without faults. */
@@ -154,28 +171,64 @@ export class Net {
     return Math.round((d / this.speed) * 1e9) + this.noise.defaults.classical.extraDelayNs;
   }
 
-  private dijkstra(source: string): Map<string, number> {
-    const dist = new Map<string, number>([[source, 0]]);
-    const done = new Set<string>();
-    // networks are small (hundreds of nodes): a linear scan for the minimum is enough
-    for (;;) {
-      let best: string | undefined;
-      let bestD = Infinity;
-      for (const [n, d] of dist) {
-        if (!done.has(n) && (d < bestD || (d === bestD && best !== undefined && n < best))) {
-          best = n;
-          bestD = d;
+  /**
+   * The distance from `source` to node `target` (an index), in O(E log V) at most: a binary
+   * heap ordered by distance, then node id, stopping when the target is settled. Nodes are
+   * settled in exactly that order and relaxed in link order, so every sum is formed as it
+   * always was, bit for bit. Every node settled on the way is written to `settled`.
+   */
+  private dijkstra(source: string, target: number, settled: Map<number, number>): number {
+    const ids = this.nodeIds;
+    const start = this.index.get(source)!;
+    const dist = new Map<number, number>([[start, 0]]);
+    const done = new Set<number>();
+    // entries are (distance, node index); stale ones (a node already settled, or a longer distance) are skipped
+    const heapD: number[] = [0];
+    const heapN: number[] = [start];
+    const before = (a: number, b: number): boolean => heapD[a] < heapD[b] || (heapD[a] === heapD[b] && ids[heapN[a]] < ids[heapN[b]]);
+    const swap = (a: number, b: number): void => {
+      const d = heapD[a];
+      heapD[a] = heapD[b];
+      heapD[b] = d;
+      const n = heapN[a];
+      heapN[a] = heapN[b];
+      heapN[b] = n;
+    };
+    while (heapD.length > 0) {
+      const d = heapD[0];
+      const u = heapN[0];
+      swap(0, heapD.length - 1);
+      heapD.pop();
+      heapN.pop();
+      for (let i = 0; ; ) {
+        const l = 2 * i + 1;
+        if (l >= heapD.length) break;
+        const c = l + 1 < heapD.length && before(l + 1, l) ? l + 1 : l;
+        if (!before(c, i)) break;
+        swap(c, i);
+        i = c;
+      }
+      if (done.has(u) || d > dist.get(u)!) continue;
+      done.add(u);
+      settled.set(u, d);
+      if (u === target) return d;
+      for (const lid of this.linksAt.get(ids[u]) ?? []) {
+        const l = this.links.get(lid)!.def;
+        const other = this.index.get(l.ends[0] === ids[u] ? l.ends[1] : l.ends[0])!;
+        const nd = d + l.lengthM;
+        if (nd < (dist.get(other) ?? Infinity)) {
+          dist.set(other, nd);
+          heapD.push(nd);
+          heapN.push(other);
+          for (let i = heapD.length - 1; i > 0; ) {
+            const p = (i - 1) >> 1;
+            if (!before(i, p)) break;
+            swap(i, p);
+            i = p;
+          }
         }
       }
-      if (best === undefined) break;
-      done.add(best);
-      for (const lid of this.linksAt.get(best) ?? []) {
-        const l = this.links.get(lid)!.def;
-        const other = l.ends[0] === best ? l.ends[1] : l.ends[0];
-        const nd = bestD + l.lengthM;
-        if (nd < (dist.get(other) ?? Infinity)) dist.set(other, nd);
-      }
     }
-    return dist;
+    return Infinity;
   }
 }

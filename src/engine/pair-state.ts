@@ -8,10 +8,10 @@ import type { PairRecord, World } from './types.js';
 
 /** The cluster's state with every unfrozen qubit decayed up to `t`. */
 function clusterAt(net: Net, w: World, cid: number, t: number): { rho: Rho; qubits: readonly number[] } {
-  const c = w.clusters[cid];
+  const c = w.clusters.get(cid)!;
   let rho = c.rho;
   c.qubits.forEach((qid, i) => {
-    const q = w.qubits[qid];
+    const q = w.qubits.get(qid)!;
     if (q.frozen || t <= q.decayedTo) return;
     const mem = net.nodeNoise(q.node).memory;
     if (mem.t1Ns !== undefined || mem.t2Ns !== undefined) rho = memoryDecay(rho, i, t - q.decayedTo, mem.t1Ns, mem.t2Ns);
@@ -21,8 +21,8 @@ function clusterAt(net: Net, w: World, cid: number, t: number): { rho: Rho; qubi
 
 /** The two-qubit state of qubits a and b (a first) at time t; a product state if they share no cluster. */
 export function twoQubitState(net: Net, w: World, a: number, b: number, t: number): Rho {
-  const ca = w.qubits[a].cluster;
-  const cb = w.qubits[b].cluster;
+  const ca = w.qubits.get(a)!.cluster;
+  const cb = w.qubits.get(b)!.cluster;
   if (ca === cb) {
     const c = clusterAt(net, w, ca, t);
     return keepQubits(c.rho, [c.qubits.indexOf(a), c.qubits.indexOf(b)]);
@@ -44,6 +44,14 @@ export function farHalf(w: World, node: string, qid: number): number | undefined
   return undefined;
 }
 
+/** Removes the first occurrence of `item` from a list in place, keeping the order (unlike `splice`, it makes no new array). */
+export function removeItem<T>(list: T[], item: T): void {
+  const i = list.indexOf(item);
+  if (i < 0) return;
+  for (let j = i + 1; j < list.length; j++) list[j - 1] = list[j];
+  list.length--;
+}
+
 /** The record of the half held in qubit `qid` among a node's pairs, if it is there. */
 export function heldHalf(pairs: readonly PairRecord[] | undefined, qid: number): PairRecord | undefined {
   if (pairs === undefined) return undefined;
@@ -61,7 +69,7 @@ export interface PairView {
 export function viewPair(net: Net, w: World, node: string, qid: number, t: number): PairView {
   const far = farHalf(w, node, qid);
   if (!far) return {};
-  const farNode = w.qubits[far].node;
+  const farNode = w.qubits.get(far)!.node;
   const [a, b] = node <= farNode ? [qid, far] : [far, qid];
   const rho = twoQubitState(net, w, a, b, t);
   return { fidelity: fidelityPhiPlus(rho), bell: bellCoefficients(rho) };

@@ -24,6 +24,7 @@ import {
 } from '../quantum/index.js';
 import type { Net } from './net.js';
 import { trace, traced } from './physics-trace.js';
+import { removeItem } from './pair-state.js';
 import type { Cluster, World } from './types.js';
 
 const pool = new BufferPool();
@@ -68,29 +69,36 @@ export function addCluster(w: World, qubits: readonly { node: string; link: stri
   const ids: number[] = [];
   for (const q of qubits) {
     const id = ++w.counters.qubit;
-    w.qubits[id] = { id, node: q.node, link: q.link, cluster: cid, decayedTo: since, frozen: false };
+    w.qubits.set(id, { id, node: q.node, link: q.link, cluster: cid, decayedTo: since, frozen: false });
     ids.push(id);
   }
   // `rho` is a shared, frozen value (the link's pair state): the cluster copies it on first change
-  w.clusters[cid] = { id: cid, qubits: ids, rho };
+  w.clusters.set(cid, { id: cid, qubits: ids, rho, born: w.time });
   return ids;
 }
 
 function clusterOf(w: World, qid: number): Cluster {
-  const q = w.qubits[qid];
+  const q = w.qubits.get(qid);
   if (!q) throw new Error(`engine: unknown qubit ${qid}`);
-  return w.clusters[q.cluster];
+  return w.clusters.get(q.cluster)!;
+}
+
+/** The herald time of the earliest link pair behind qubits a and b (ns). */
+export function earliestBirth(w: World, a: number, b: number): number {
+  const ba = w.clusters.get(w.qubits.get(a)!.cluster)!.born;
+  const bb = w.clusters.get(w.qubits.get(b)!.cluster)!.born;
+  return ba < bb ? ba : bb;
 }
 
 /** Applies memory decay to a qubit from where it was last brought up to date until `t`. */
 export function decayTo(net: Net, w: World, qid: number, t: number): void {
-  const q = w.qubits[qid];
+  const q = w.qubits.get(qid)!;
   if (q.frozen || t <= q.decayedTo) return;
   const mem = net.nodeNoise(q.node).memory;
   if (mem.t1Ns !== undefined || mem.t2Ns !== undefined) {
     const dt = t - q.decayedTo;
     checkDecay(dt, mem.t1Ns, mem.t2Ns);
-    const c = w.clusters[q.cluster];
+    const c = w.clusters.get(q.cluster)!;
     const rho = writable(c);
     const i = c.qubits.indexOf(qid);
     if (trace) traced.decay(trace, rho.data, rho.n, i, dt, mem.t1Ns, mem.t2Ns);
@@ -111,11 +119,12 @@ export function merge(w: World, a: number, b: number, cap: number): Cluster {
   tensorInto(ca.rho, cb.rho, out);
   replace(ca, n, out);
   if (owned(cb.rho)) give(cb.rho.data);
-  for (const q of cb.qubits) w.qubits[q].cluster = ca.id;
+  for (const q of cb.qubits) w.qubits.get(q)!.cluster = ca.id;
+  if (cb.born < ca.born) ca.born = cb.born;
   // a list made since the last finished world is this copy's own (see `owned`)
   if (Object.isFrozen(ca.qubits) || isDraft(ca.qubits)) ca.qubits = [...ca.qubits, ...cb.qubits];
   else for (const q of cb.qubits) ca.qubits.push(q);
-  delete w.clusters[cb.id];
+  w.clusters.delete(cb.id);
   return ca;
 }
 
@@ -124,7 +133,7 @@ export function merge(w: World, a: number, b: number, cap: number): Cluster {
  * depolarizing. The model has checked the gate's name and arity; the angle is checked here.
  */
 export function gate(net: Net, w: World, op: GateName, a: number, b: number, angle: number | undefined, cap: number): void {
-  const node = w.qubits[a].node;
+  const node = w.qubits.get(a)!.node;
   const noise = net.nodeNoise(node).gates;
   if (b >= 0) {
     const c = merge(w, a, b, cap);
@@ -156,8 +165,8 @@ export function gate(net: Net, w: World, op: GateName, a: number, b: number, ang
 
 /** Destructively measures a qubit with the node's readout flip; the qubit leaves the world. */
 export function measureQubit(net: Net, w: World, qid: number, basis: 'z' | 'x' | 'y', u: number): 0 | 1 {
-  const q = w.qubits[qid];
-  const c = w.clusters[q.cluster];
+  const q = w.qubits.get(qid)!;
+  const c = w.clusters.get(q.cluster)!;
   const flip = net.nodeNoise(q.node).gates.measure.flip;
   if (!(flip >= 0 && flip <= 1)) throw new Error(`readout flip probability must be a probability in [0, 1], got ${String(flip)}`);
   // the measurement rotates the state before reading it, so it needs a private copy
@@ -183,11 +192,11 @@ export function traceOut(w: World, qid: number): void {
 
 function dropQubit(w: World, c: Cluster, qid: number, n: number, rest: Float64Array): void {
   if (Object.isFrozen(c.qubits) || isDraft(c.qubits)) c.qubits = c.qubits.filter((x) => x !== qid);
-  else c.qubits.splice(c.qubits.indexOf(qid), 1);
-  delete w.qubits[qid];
+  else removeItem(c.qubits, qid);
+  w.qubits.delete(qid);
   replace(c, n, rest);
   if (c.qubits.length === 0) {
-    delete w.clusters[c.id];
+    w.clusters.delete(c.id);
     give(rest);
   }
 }

@@ -40,11 +40,11 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent, deta
   const rules = net.rules.get(node);
   if (!rules || rules.length === 0) return;
   const state = w.nodes[node];
-  let scope = net.scopes.get(node);
+  let scope = net.scope;
   if (!scope) {
     scope = new RuleScope(net, w, node, new Bindings());
-    net.scopes.set(node, scope);
-  } else scope.reset(w);
+    net.scope = scope;
+  } else scope.reset(w, node);
   const ctx: MatchContext = { w, node, scope, nodeIds: net.nodeSet };
   let fires = 0;
   let last: Rule | undefined;

@@ -8,20 +8,21 @@ import { joinIds } from './ids.js';
 import type { Net } from './net.js';
 import type { Message, PairRecord, World } from './types.js';
 import { heldHalf } from './pair-state.js';
+import { SmallMap, SmallSet } from './small-map.js';
 
 /** Mutable bindings of one rule attempt; the matcher undoes them when it backtracks. */
 export class Bindings {
-  readonly pairs = new Map<string, number>();
-  readonly messages = new Map<string, Message>();
-  readonly values = new Map<string, Value>();
-  readonly usedQubits = new Set<number>();
-  readonly usedMessages = new Set<number>();
+  readonly pairs = new SmallMap<string, number>();
+  readonly messages = new SmallMap<string, Message>();
+  readonly values = new SmallMap<string, Value>();
+  readonly usedQubits = new SmallSet<number>();
+  readonly usedMessages = new SmallSet<number>();
   /** Record views of bound messages, built once per attempt. */
-  readonly messageViews = new Map<number, ValueRecord>();
+  readonly messageViews = new SmallMap<number, ValueRecord>();
   /** The last record of bound pairs that left the node earlier in the body (measured, discarded, delivered). */
-  readonly released = new Map<string, PairRecord>();
+  readonly released = new SmallMap<string, PairRecord>();
   /** When each of them left (their age is read at that moment). */
-  readonly releasedAt = new Map<string, number>();
+  readonly releasedAt = new SmallMap<string, number>();
   /**
    * Set by whoever adds to the maps above, so that clearing an unused set of bindings (most
    * rule attempts fail at their first guard) costs one test.
@@ -114,8 +115,9 @@ export class RuleScope implements Scope {
     });
   }
 
-  /** Points the scope at another world (the same node), clearing its bindings. */
-  reset(w: World): void {
+  /** Points the scope at another world and node, clearing its bindings. */
+  reset(w: World, node: string = this.node): void {
+    this.node = node;
     this.w = w;
     this.now = w.time;
     this.bindings.clear();
@@ -150,10 +152,15 @@ export class RuleScope implements Scope {
     const b = this.bindings;
     const q = b.pairs.get(name);
     if (q !== undefined) {
-      const rec = heldHalf(this.w.nodes[this.node].pairs, q);
-      // a released pair (and any field it lacks) takes the general path
-      if (rec === undefined) return undefined;
-      // noted values shadow the record's own fields, as in pairValue
+      let rec = heldHalf(this.w.nodes[this.node].pairs, q);
+      let now = this.now;
+      if (rec === undefined) {
+        // a pair freed earlier in the body reads as its last record (see lookup)
+        rec = b.released.get(name);
+        if (rec === undefined) return undefined;
+        now = b.releasedAt.get(name)!;
+      }
+      // noted values shadow the record's own fields, as in pairValue; a missing field takes the general path
       if (Object.hasOwn(rec.notes, field)) return rec.notes[field];
       switch (field) {
         case 'id':
@@ -163,7 +170,7 @@ export class RuleScope implements Scope {
         case 'stage':
           return rec.stage;
         case 'age':
-          return this.now - rec.born;
+          return now - rec.born;
         case 'born':
           return rec.born;
       }

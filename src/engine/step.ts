@@ -3,7 +3,8 @@
  * wraps one event in one immer `produce` (for people stepping), and `Engine.advance`
  * applies a batch of events per `produce` (for headless runs). The same code serves both.
  */
-import { Immer } from 'immer';
+import { enableMapSet, Immer } from 'immer';
+
 import type { NoiseModel, ProgramSet } from '../model/types.js';
 import { heapPop } from './heap.js';
 import { herald, maybeGenerate } from './links.js';
@@ -15,6 +16,9 @@ import { shortPairId } from './ids.js';
 import { settle, thaw, thawNode } from './thaw.js';
 import type { DeliveryRecord, EngineEvent, FireRecord, Message, Scheduled, SendRecord, World } from './types.js';
 
+// worlds keep qubits, clusters and messages in Maps; immer drafts them with this plugin
+enableMapSet();
+
 /** The world before any event: empty memories, every link attempting. */
 export function initialWorld(net: Net, seed: number): World {
   const w: World = {
@@ -25,9 +29,9 @@ export function initialWorld(net: Net, seed: number): World {
     queue: [],
     nodes: {},
     links: {},
-    qubits: {},
-    clusters: {},
-    inflight: {},
+    qubits: new Map(),
+    clusters: new Map(),
+    inflight: new Map(),
     halves: {},
     delivered: null,
     lost: [],
@@ -35,7 +39,7 @@ export function initialWorld(net: Net, seed: number): World {
   };
   for (const id of net.nodeIds) w.nodes[id] = { id, busyUntil: 0, nextWake: null, pairs: [], inbox: [], arrivals: 0, fired: {} };
   for (const [id, info] of net.links) {
-    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0 };
+    w.links[id] = { id, generating: false, used: { [info.def.ends[0]]: 0, [info.def.ends[1]]: 0 }, generated: 0, fullSince: -1, fullNs: 0 };
   }
   for (const id of [...net.links.keys()].sort()) maybeGenerate(net, w, id, 0);
   return w;
@@ -44,7 +48,7 @@ export function initialWorld(net: Net, seed: number): World {
 /** The nodes whose state an event may change: its link's ends, its receiver, or the woken node. */
 function touchedBy(net: Net, w: World, s: Scheduled): readonly string[] {
   if (s.type === 'herald') return net.links.get(s.link)!.ends;
-  if (s.type === 'arrive') return [w.inflight[s.message].to];
+  if (s.type === 'arrive') return [w.inflight.get(s.message)!.to];
   return [s.node];
 }
 

@@ -53,18 +53,12 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
   const links: World['links'] = {};
   for (const id in w.links) {
     const l = w.links[id];
-    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated };
+    links[id] = { id: l.id, generating: l.generating, used: copyRecord(l.used), generated: l.generated, fullSince: l.fullSince, fullNs: l.fullNs };
   }
-  const qubits: World['qubits'] = {};
-  for (const id in w.qubits) {
-    const q = w.qubits[id];
-    qubits[id] = { id: q.id, node: q.node, link: q.link, cluster: q.cluster, decayedTo: q.decayedTo, frozen: q.frozen };
-  }
-  const clusters: World['clusters'] = {};
-  for (const id in w.clusters) {
-    const c = w.clusters[id];
-    clusters[id] = { id: c.id, qubits: c.qubits, rho: c.rho };
-  }
+  const qubits: World['qubits'] = new Map();
+  for (const [id, q] of w.qubits) qubits.set(id, { id: q.id, node: q.node, link: q.link, cluster: q.cluster, decayedTo: q.decayedTo, frozen: q.frozen });
+  const clusters: World['clusters'] = new Map();
+  for (const [id, c] of w.clusters) clusters.set(id, { id: c.id, qubits: c.qubits, rho: c.rho, born: c.born });
   const c = w.counters;
   return {
     time: w.time,
@@ -76,7 +70,7 @@ export function thaw(w: World, opts: { nodes: 'all' | 'none' } = { nodes: 'all' 
     links,
     qubits,
     clusters,
-    inflight: copyRecord(w.inflight),
+    inflight: new Map(w.inflight),
     halves: copyRecord(w.halves),
     delivered: w.delivered,
     lost: w.lost.slice(),
@@ -90,6 +84,7 @@ export function deepFreeze<T>(v: T): T {
   if (v === null || typeof v !== 'object' || Object.isFrozen(v) || ArrayBuffer.isView(v) || v instanceof DeliveryLog) return v;
   Object.freeze(v);
   if (Array.isArray(v)) for (const x of v) deepFreeze(x);
+  else if (v instanceof Map) for (const x of v.values()) deepFreeze(x);
   else for (const k in v) deepFreeze((v as Record<string, unknown>)[k]);
   return v;
 }
@@ -129,6 +124,18 @@ function shareRecord<T>(base: Record<string, T>, next: Record<string, T>, same: 
   return next;
 }
 
+/** Each entry of `next` replaced by base's entry when `same` says they are equal; base itself when nothing changed. */
+function shareMap<K, T>(base: Map<K, T>, next: Map<K, T>, same: (a: T, b: T) => boolean): Map<K, T> {
+  let changed = base.size !== next.size;
+  for (const [k, v] of next) {
+    const b = base.get(k);
+    if (b === v) continue;
+    if (b !== undefined && same(b, v)) next.set(k, b);
+    else changed = true;
+  }
+  return changed ? next : base;
+}
+
 const samePair = (a: PairRecord, b: PairRecord): boolean =>
   a.qubit === b.qubit && a.id === b.id && a.partner === b.partner && a.stage === b.stage && a.born === b.born && a.order === b.order && a.link === b.link && sameEntries(a.notes, b.notes);
 
@@ -160,13 +167,13 @@ const sameNode = (a: NodeState, b: NodeState): boolean => {
 
 const sameLink = (a: LinkState, b: LinkState): boolean => {
   if (sameEntries(a.used, b.used)) b.used = a.used;
-  return a.generating === b.generating && a.generated === b.generated && a.used === b.used;
+  return a.generating === b.generating && a.generated === b.generated && a.used === b.used && a.fullSince === b.fullSince && a.fullNs === b.fullNs;
 };
 
 const sameQubit = (a: QubitState, b: QubitState): boolean =>
   a.node === b.node && a.link === b.link && a.cluster === b.cluster && a.decayedTo === b.decayedTo && a.frozen === b.frozen;
 
-const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
+const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && a.born === b.born && (a.qubits === b.qubits || sameArray(a.qubits, b.qubits));
 
 /**
  * Gives a worked-on copy of `base` structural sharing with it: every part equal to base's
@@ -176,9 +183,9 @@ const sameCluster = (a: Cluster, b: Cluster): boolean => a.rho === b.rho && (a.q
 export function shareWorld(base: World, next: World): World {
   next.nodes = shareRecord(base.nodes, next.nodes, sameNode);
   next.links = shareRecord(base.links, next.links, sameLink);
-  next.qubits = shareRecord(base.qubits, next.qubits, sameQubit);
-  next.clusters = shareRecord(base.clusters, next.clusters, sameCluster);
-  next.inflight = shareRecord(base.inflight, next.inflight, Object.is);
+  next.qubits = shareMap(base.qubits, next.qubits, sameQubit);
+  next.clusters = shareMap(base.clusters, next.clusters, sameCluster);
+  next.inflight = shareMap(base.inflight, next.inflight, Object.is);
   next.halves = shareRecord(base.halves, next.halves, Object.is);
   if (sameArray(base.queue, next.queue)) next.queue = base.queue;
   if (sameArray(base.lost, next.lost)) next.lost = base.lost;

@@ -55,6 +55,12 @@ export interface Cluster {
   /** Qubit numbers in the order of the density matrix's qubits. */
   qubits: number[];
   rho: Rho;
+  /**
+   * The herald time of the earliest link pair that went into this cluster (ns): the minimum
+   * over the clusters merged into it, so a pair made by swaps and purification knows when
+   * its oldest ingredient was born. Not part of digests.
+   */
+  born: number;
 }
 
 export interface Message {
@@ -93,6 +99,10 @@ export interface LinkState {
   used: Record<string, number>;
   /** Pairs made so far. */
   generated: number;
+  /** Since when the link cannot attempt because an end has no free slot (ns); -1 while it can. */
+  fullSince: number;
+  /** Time spent so full, up to `fullSince` (ns). Neither field is part of digests. */
+  fullNs: number;
 }
 
 /** The true state of a pair whose two halves were both delivered (FORMAT.md §4). */
@@ -102,6 +112,8 @@ export interface DeliveryRecord {
   time_ns: number;
   fidelity: number;
   bell: [number, number, number, number];
+  /** The herald time of the earliest link pair that went into this pair (ns), for latency. */
+  born_ns: number;
 }
 
 export interface HalfDelivery {
@@ -133,12 +145,12 @@ export interface World {
   queue: Scheduled[];
   nodes: Record<string, NodeState>;
   links: Record<string, LinkState>;
-  /** Qubits in use, by number. */
-  qubits: Record<number, QubitState>;
+  /** Qubits in use, by number (a Map: numbers as property keys make iteration slow in V8). */
+  qubits: Map<number, QubitState>;
   /** Clusters, by number. */
-  clusters: Record<number, Cluster>;
-  /** Messages on their way, by number. */
-  inflight: Record<number, Message>;
+  clusters: Map<number, Cluster>;
+  /** Messages on their way, by number, in the order they were sent. */
+  inflight: Map<number, Message>;
   halves: Record<string, HalfDelivery>;
   /** Delivered pairs: this world's view of the run's append-only delivery log (see delivered.ts). */
   delivered: DeliveredView | null;

@@ -29,6 +29,19 @@ export interface InputErrorInit {
   fix?: string;
 }
 
+/** One problem of an input error, as the CLI prints it (absent parts are null). */
+export interface InputIssue {
+  readonly file: string | null;
+  readonly line: number | null;
+  readonly column: number | null;
+  /** Dotted path of the offending field, or the flag or option. */
+  readonly field: string | null;
+  readonly message: string;
+  /** How to fix it. */
+  readonly fix: string | null;
+}
+
+/** Something wrong with a user's files, flags, options or expressions; `issues` lists every problem found. */
 export class InputError extends Error {
   readonly code: InputErrorCode;
   readonly file?: string;
@@ -48,6 +61,18 @@ export class InputError extends Error {
     this.fix = init.fix;
   }
 
+  /** Every problem found: this one alone (several for `InputErrors`). */
+  get issues(): readonly InputIssue[] {
+    return [{ file: this.file ?? null, line: this.line ?? null, column: this.col ?? null, field: this.field ?? null, message: this.message, fix: this.fix ?? null }];
+  }
+
+  /** The error for an input file that could not be read (`cause` is the file system's error). */
+  static unreadable(path: string, what: string, cause: unknown): InputError {
+    const code = (cause as NodeJS.ErrnoException)?.code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : code === 'EACCES' ? 'permission denied' : String((cause as Error)?.message ?? cause);
+    return new InputError({ code: 'file', file: path, message: `cannot read the ${what}: ${why}`, fix: `check the path of the ${what}` });
+  }
+
   /** Builds an error located at a source position. */
   static at(pos: SourcePos | undefined, init: Omit<InputErrorInit, 'file' | 'line' | 'col'>): InputError {
     return new InputError({ ...init, file: pos?.file, line: pos?.line, col: pos?.col });
@@ -63,15 +88,24 @@ export class InputError extends Error {
   }
 }
 
-/** Several input errors found in one pass; the CLI prints them all. */
-export class InputErrors extends Error {
+/**
+ * Several input errors found in one pass; the CLI prints them all. It is an InputError
+ * itself (located at the first), so one `instanceof InputError` catches every input error.
+ */
+export class InputErrors extends InputError {
   readonly errors: readonly InputError[];
   constructor(errors: readonly InputError[]) {
-    super(errors.map((e) => e.message).join('; '));
+    const first = errors[0];
+    super({ code: first?.code ?? 'schema', message: errors.map((e) => e.message).join('; '), file: first?.file, line: first?.line, col: first?.col, field: first?.field, fix: first?.fix });
     this.name = 'InputErrors';
     this.errors = errors;
   }
-  format(): string {
+
+  override get issues(): readonly InputIssue[] {
+    return this.errors.flatMap((e) => e.issues);
+  }
+
+  override format(): string {
     return this.errors.map((e) => e.format()).join('\n');
   }
 }

@@ -47,25 +47,6 @@ function tooDeep(root: unknown, max: number): Node | undefined {
   return undefined;
 }
 
-// Positions are looked up by path many times per rule; a mapping with thousands of keys
-// (programs of a large network) would make each lookup a long scan without an index.
-const keyIndex = new WeakMap<YAMLMap, Map<string, Pair>>();
-
-/** The entry of a mapping with this key (the first, should a key be written twice). */
-function pairIn(map: YAMLMap, key: string): Pair | undefined {
-  let index = keyIndex.get(map);
-  if (!index) {
-    index = new Map();
-    for (const p of map.items) {
-      if (!isPair(p) || !isScalar(p.key)) continue;
-      const k = String(p.key.value);
-      if (!index.has(k)) index.set(k, p as Pair);
-    }
-    keyIndex.set(map, index);
-  }
-  return index.get(key);
-}
-
 /** Keys that could reach JavaScript object internals if they ever became property names. */
 const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
@@ -262,13 +243,30 @@ export class SourceDoc {
     return { file: this.file, ...this.lines.linePos(offset) };
   }
 
+  /** Each mapping's pairs by key (the first of equal keys), built on first use: a path lookup costs the same in a file of any size. */
+  private readonly keyIndex = new WeakMap<object, Map<string, Pair>>();
+
+  private pairOf(map: YAMLMap, key: string): Pair | undefined {
+    let index = this.keyIndex.get(map);
+    if (index === undefined) {
+      index = new Map();
+      for (const p of map.items) {
+        if (!isPair(p) || !isScalar(p.key)) continue;
+        const k = String(p.key.value);
+        if (!index.has(k)) index.set(k, p);
+      }
+      this.keyIndex.set(map, index);
+    }
+    return index.get(key);
+  }
+
   /** The deepest syntax node along `path`, and whether the whole path was found. */
   nodeAt(path: Path): { node: Node; exact: boolean } {
     let node = this.doc.contents as Node;
     for (const part of path) {
       let next: Node | undefined;
       if (isMap(node)) {
-        const pair = pairIn(node as YAMLMap, String(part));
+        const pair = this.pairOf(node, String(part));
         // A key with no value ("name:") has no value node: point at the key.
         if (pair) next = (pair.value as Node | null) ?? (pair.key as Node);
       } else if (isSeq(node) && typeof part === 'number') {
@@ -289,7 +287,7 @@ export class SourceDoc {
   keyPosAt(path: Path, key: string): SourcePos {
     const { node, exact } = this.nodeAt(path);
     if (exact && isMap(node)) {
-      const pair = pairIn(node as YAMLMap, key);
+      const pair = this.pairOf(node, key);
       const k = pair?.key as Node | undefined;
       if (k?.range) return this.at(k.range[0]);
     }

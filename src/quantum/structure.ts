@@ -61,10 +61,7 @@ export function keepQubits(rho: Rho, keep: readonly number[]): Rho {
 /** Writes the reduced state of the listed qubits (distinct, checked by the caller) into `out`. */
 export function keepQubitsInto(rho: Rho, keep: readonly number[], out: Float64Array): void {
   const n = rho.n;
-  const rest: number[] = [];
-  for (let q = 0; q < n; q++) if (keep.indexOf(q) < 0) rest.push(q);
-  const keepIdx = spread(n, keep);
-  const restIdx = spread(n, rest);
+  const { keepIdx, restIdx } = spreads(n, keep);
   const dimIn = dimOf(n);
   const dimOut = dimOf(keep.length);
   const src = rho.data;
@@ -89,6 +86,26 @@ export function keepQubitsInto(rho: Rho, keep: readonly number[], out: Float64Ar
 function isIdentity(order: readonly number[]): boolean {
   for (let i = 0; i < order.length; i++) if (order[i] !== i) return false;
   return true;
+}
+
+// Index spreads of the small states that occur in a network, built once per list of kept qubits.
+const spreadCache = new Map<number, { keepIdx: Int32Array; restIdx: Int32Array }>();
+
+function spreads(n: number, keep: readonly number[]): { keepIdx: Int32Array; restIdx: Int32Array } {
+  // a key for n ≤ 6: the kept qubits as base-7 digits (1 + index), then n
+  let key = -1;
+  if (n <= 6) {
+    key = 0;
+    for (let i = 0; i < keep.length; i++) key = key * 7 + keep[i] + 1;
+    key = key * 7 + n;
+    const hit = spreadCache.get(key);
+    if (hit !== undefined) return hit;
+  }
+  const rest: number[] = [];
+  for (let q = 0; q < n; q++) if (keep.indexOf(q) < 0) rest.push(q);
+  const s = { keepIdx: spread(n, keep), restIdx: spread(n, rest) };
+  if (key >= 0) spreadCache.set(key, s);
+  return s;
 }
 
 /** For each index j over the listed qubits (first listed = most significant), the old index with those bits set. */

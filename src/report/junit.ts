@@ -4,6 +4,9 @@
  * message survives. The one place bellstep writes JUnit (replay, sweep and merge).
  */
 import { hostname } from 'node:os';
+import { xmlAttr, xmlText } from './xml.js';
+
+export { xmlAttr, xmlText };
 
 /** A failed or errored test case: `type` says what kind, `message` is one line, `text` the detail. */
 export interface JunitProblem {
@@ -36,24 +39,6 @@ export interface JunitSuite {
   readonly hostname?: string;
   readonly systemOut?: string;
   readonly systemErr?: string;
-}
-
-// XML 1.0 forbids most control characters even as references; show them instead of dropping them
-// eslint-disable-next-line no-control-regex
-const FORBIDDEN = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g;
-
-function visible(s: string): string {
-  return s.replace(FORBIDDEN, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
-}
-
-/** Escapes text for element content. */
-export function xmlText(s: string): string {
-  return visible(s).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-}
-
-/** Escapes text for a double-quoted attribute; newlines and tabs are kept as references so parsers do not fold them. */
-export function xmlAttr(s: string): string {
-  return xmlText(s).replace(/"/g, '&quot;').replace(/'/g, '&apos;').replace(/\n/g, '&#10;').replace(/\r/g, '&#13;').replace(/\t/g, '&#9;');
 }
 
 /** `2026-12-02T10:00:00`: local time, no zone, no fraction (the schema's pattern). */

@@ -72,7 +72,7 @@ export function debugFunctions(net: Net, w: World): Record<string, ExprFunction>
       const from = node(net, 'inflight', args[0], 'FROM');
       const to = node(net, 'inflight', args[1], 'TO');
       const kind = str('inflight', args[2], 'KIND');
-      return Object.values(w.inflight).filter(
+      return [...w.inflight.values()].filter(
         (m) => (from === undefined || m.from === from) && (to === undefined || m.to === to) && (kind === undefined || m.kind === kind),
       ).length;
     },

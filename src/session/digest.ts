@@ -8,6 +8,9 @@
  */
 import type { EngineEvent, World } from '../engine/index.js';
 
+/** Char codes of the hex digits 0-9a-f. */
+const HEX_CODES = Array.from('0123456789abcdef', (c) => c.charCodeAt(0));
+
 /** Decimal digits of a number, least significant first (scratch for `tagged`). */
 const DIGITS = new Int32Array(24);
 
@@ -43,7 +46,17 @@ class Hasher {
 
   str(s: string): void {
     this.int(s.length);
-    for (let i = 0; i < s.length; i++) this.int(s.charCodeAt(i));
+    // the same steps as `int` per character, on locals: strings are most of what a digest hashes
+    let a = this.a;
+    let b = this.b;
+    for (let i = 0; i < s.length; i++) {
+      const x = s.charCodeAt(i);
+      a = Math.imul(a ^ x, 0x01000193);
+      b = Math.imul(b ^ x, 0x5bd1e995);
+      b ^= b >>> 15;
+    }
+    this.a = a;
+    this.b = b;
   }
 
   /** The same as `str(prefix + n)` for a one-letter prefix and a whole number n ≥ 0, without building the string. */
@@ -62,7 +75,27 @@ class Hasher {
   floats(data: Float64Array): void {
     const words = new Uint32Array(data.buffer, data.byteOffset, data.length * 2);
     this.int(words.length);
-    for (let i = 0; i < words.length; i++) this.int(words[i]);
+    let a = this.a;
+    let b = this.b;
+    for (let i = 0; i < words.length; i++) {
+      const x = words[i] | 0;
+      a = Math.imul(a ^ x, 0x01000193);
+      b = Math.imul(b ^ x, 0x5bd1e995);
+      b ^= b >>> 15;
+    }
+    this.a = a;
+    this.b = b;
+  }
+
+  /** The same as `str` of the 16 hex digits of two 32-bit halves, without building the string. */
+  hexText(hi: number, lo: number): void {
+    this.int(16);
+    for (let s = 28; s >= 0; s -= 4) this.int(HEX_CODES[(hi >>> s) & 15]);
+    for (let s = 28; s >= 0; s -= 4) this.int(HEX_CODES[(lo >>> s) & 15]);
+  }
+
+  get halves(): [number, number] {
+    return [this.a >>> 0, this.b >>> 0];
   }
 
   hex(): string {
@@ -82,15 +115,53 @@ const shared = new Hasher();
 export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
   const h = shared.reset();
   h.str(prev);
+  hashEvent(h, ev, w);
+  return h.hex();
+}
+
+/** The digest after `ev` as two 32-bit halves, chained to the previous digest's halves (the same digest as `eventDigest`). */
+export function eventDigestHalves(prevHi: number, prevLo: number, ev: EngineEvent, w: World): [number, number] {
+  const h = shared.reset();
+  h.hexText(prevHi, prevLo);
+  hashEvent(h, ev, w);
+  return h.halves;
+}
+
+// scratch lists for one digest at a time (digests are computed one after another)
+const clusterList: number[] = [];
+const linkList: string[] = [];
+/** Each link's `used` keys, sorted (they are its two ends), so a digest does not sort them every time. */
+const usedKeys = new WeakMap<object, string[]>();
+
+function addOnce<T>(list: T[], x: T): void {
+  for (let i = 0; i < list.length; i++) if (list[i] === x) return;
+  list.push(x);
+}
+
+function hashEvent(h: Hasher, ev: EngineEvent, w: World): void {
   h.num(ev.index);
   h.num(w.time);
   h.num(w.seq);
-  for (const x of w.rng) h.int(x);
+  const rng = w.rng;
+  h.int(rng[0]);
+  h.int(rng[1]);
+  h.int(rng[2]);
+  h.int(rng[3]);
   const c = w.counters;
-  for (const x of [c.qubit, c.cluster, c.pair, c.message, c.sent, c.arrived, c.dropped, w.delivered?.count ?? 0, w.queue.length]) h.num(x);
+  h.num(c.qubit);
+  h.num(c.cluster);
+  h.num(c.pair);
+  h.num(c.message);
+  h.num(c.sent);
+  h.num(c.arrived);
+  h.num(c.dropped);
+  h.num(w.delivered?.count ?? 0);
+  h.num(w.queue.length);
   h.str(ev.summary);
-  const clusters = new Set<number>();
-  const links = new Set<string>();
+  const clusters = clusterList;
+  const links = linkList;
+  clusters.length = 0;
+  links.length = 0;
   for (const id of ev.nodes) {
     const n = w.nodes[id];
     h.str(id);
@@ -107,15 +178,15 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
       h.num(p.born);
       h.num(p.order);
       h.str(p.link);
-      links.add(p.link);
+      addOnce(links, p.link);
       for (const k in p.notes) {
         h.str(k);
         h.str(JSON.stringify(p.notes[k]));
       }
-      const qs = w.qubits[q];
+      const qs = w.qubits.get(q);
       if (qs) {
         h.num(qs.decayedTo);
-        clusters.add(qs.cluster);
+        addOnce(clusters, qs.cluster);
       }
     }
     for (const m of n.inbox) h.tagged('m', m.id);
@@ -125,25 +196,31 @@ export function eventDigest(prev: string, ev: EngineEvent, w: World): string {
     h.num(s.arrives);
   }
   // in the order of their names as text (c10 before c9), as digests have always been taken
-  for (const cid of [...clusters].sort(byName)) {
-    const cl = w.clusters[cid];
+  if (clusters.length > 1) clusters.sort(byName);
+  for (const cid of clusters) {
+    const cl = w.clusters.get(cid);
     if (!cl) continue;
     h.tagged('c', cid);
     for (const q of cl.qubits) h.tagged('q', q);
     h.floats(cl.rho.data);
   }
-  for (const lid of [...links].sort()) {
+  if (links.length > 1) links.sort();
+  for (const lid of links) {
     const l = w.links[lid];
     if (!l) continue;
     h.str(lid);
     h.int(l.generating ? 1 : 0);
-    for (const k of Object.keys(l.used).sort()) h.num(l.used[k]);
+    let keys = usedKeys.get(l.used);
+    if (keys === undefined) {
+      keys = Object.keys(l.used).sort();
+      usedKeys.set(l.used, keys);
+    }
+    for (const k of keys) h.num(l.used[k]);
   }
   for (const d of ev.deliveries) {
     h.str(d.id);
     h.num(d.fidelity);
   }
-  return h.hex();
 }
 
 function byName(a: number, b: number): number {

@@ -1,59 +1,90 @@
 /**
- * The history of a run, cheap to rewind. Every computed event keeps a one-line record
- * (with its digest); worlds are kept in a contiguous window near the cursor (one step per
- * event, so consecutive worlds share structure) and as keyframes further
- * back. Any other world is recomputed from the nearest keyframe, which is exact because
+ * The history of a run, cheap to rewind and bounded in memory. Every computed event keeps a
+ * compact record (time, node and kind, digest: about 20 bytes, in typed-array columns), and
+ * the one-line summaries of the most recent events. Worlds are kept one per event in a
+ * window near the cursor (consecutive worlds share structure) and as keyframes further back.
+ * Any other world is recomputed from the nearest keyframe before it, which is exact because
  * the engine is deterministic.
+ *
+ * One budget (`--history-mb`) bounds all of it: records, the window and keyframes. Beyond it,
+ * keyframes thin out: a keyframe's worth grows with how round its event number is and shrinks
+ * with its distance from the cursor, so they stay dense near the cursor and grow sparser,
+ * about logarithmically, further away. A jump re-simulates from the nearest keyframe.
  */
 import type { Engine, EngineEvent, World } from '../engine/index.js';
+import { codeOf, EventColumns, KINDS } from './replay-columns.js';
 import { DigestChain, type ReplayEvent } from './replay.js';
 
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
   readonly window?: number;
-  /** Events between keyframes (default 64). */
+  /** Events between keyframes where they are densest (default 64). */
   readonly keyframeInterval?: number;
-  /** Keyframes kept; beyond this every other one is dropped and the interval doubles (default 32768). */
-  readonly maxKeyframes?: number;
-  /** Estimated bytes the keyframes may take before they are thinned the same way (default 256 MiB). */
+  /** Bytes that records, the window and keyframes may take together (default 256 MiB). */
+  readonly budgetBytes?: number;
+  /** The earlier name of `budgetBytes`. */
   readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 64, maxKeyframes: 32768, keyframeBytes: 256 * 1024 * 1024 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 64, budgetBytes: 256 * 1024 * 1024 } as const;
+
+/** Summaries kept for the most recently computed events (older ones are recomputed when asked). */
+const SUMMARIES = 8192;
 
 /** A rough size of a world on its own (what a keyframe costs), from what it holds. */
 export function estimateWorldBytes(w: World): number {
   let bytes = 2048;
-  for (const id in w.clusters) bytes += w.clusters[id].rho.data.byteLength + 200;
+  for (const c of w.clusters.values()) bytes += c.rho.data.byteLength + 200;
   for (const id in w.nodes) {
     const n = w.nodes[id];
-    bytes += 300 + 250 * n.inbox.length + 250 * Object.keys(n.pairs).length;
+    bytes += 300 + 250 * n.inbox.length + 250 * n.pairs.length;
   }
-  bytes += 150 * Object.keys(w.qubits).length + 120 * w.queue.length + 300 * Object.keys(w.inflight).length;
-  // delivery records are shared by every world (an immutable list), so they cost a keyframe nothing
+  bytes += 150 * w.qubits.size + 120 * w.queue.length + 300 * w.inflight.size;
+  // delivery records are shared by every world (an append-only log), so they cost a keyframe nothing
   bytes += 200 * Object.keys(w.links).length;
   return bytes;
 }
 
+/** Trailing zero bits of a positive whole number (how "round" it is). */
+function roundness(x: number): number {
+  let k = 0;
+  while (x > 0 && x % 2 === 0) {
+    x /= 2;
+    k++;
+  }
+  return k;
+}
+
+interface Keyframe {
+  readonly world: World;
+  readonly bytes: number;
+}
+
 export class History {
-  /** One record per computed event, in order. */
-  readonly records: ReplayEvent[] = [];
-  /** Called with each newly computed event and the world after it (breakpoint bookkeeping). */
+  /** One compact record per computed event, in order. */
+  readonly records: EventColumns;
+  /** Called with each newly computed event and the world after it (breakpoint bookkeeping, the timeline). */
   onNewEvent?: (ev: EngineEvent, world: World) => void;
 
   private readonly window: number;
-  private interval: number;
-  private readonly maxKeyframes: number;
-  private readonly keyframeBudget: number;
+  private readonly base: number;
+  private readonly budget: number;
   private keyframeTotal = 0;
-  private readonly keyframes = new Map<number, { world: World; bytes: number }>();
+  private readonly keyframes = new Map<number, Keyframe>();
   private frontierWorld: World;
   private readonly chain = new DigestChain();
+  private readonly nodeIndex = new Map<string, number>();
+  private readonly summaryText: (string | undefined)[] = new Array(SUMMARIES);
+  private readonly summaryAt = new Int32Array(SUMMARIES).fill(-1);
   /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
   private lo = 0;
   private seg: World[];
   /** The frontier may not be extended past a stall or idle end. */
   private ended = false;
+  /** Where the cursor is, for keeping keyframes dense around it. */
+  private focus = 0;
+  /** Bytes a world of the window costs on top of its neighbours (a running estimate). */
+  private windowWorldBytes = 0;
 
   constructor(
     readonly engine: Engine,
@@ -61,13 +92,15 @@ export class History {
     opts: HistoryOptions = {},
   ) {
     this.window = Math.max(2, opts.window ?? HISTORY_DEFAULTS.window);
-    this.interval = Math.max(1, opts.keyframeInterval ?? HISTORY_DEFAULTS.keyframeInterval);
-    this.maxKeyframes = Math.max(2, opts.maxKeyframes ?? HISTORY_DEFAULTS.maxKeyframes);
-    this.keyframeBudget = opts.keyframeBytes ?? HISTORY_DEFAULTS.keyframeBytes;
+    this.base = Math.max(1, opts.keyframeInterval ?? HISTORY_DEFAULTS.keyframeInterval);
+    this.budget = opts.budgetBytes ?? opts.keyframeBytes ?? HISTORY_DEFAULTS.budgetBytes;
+    engine.net.nodeIds.forEach((id, i) => this.nodeIndex.set(id, i));
+    this.records = new EventColumns(engine.net.nodeIds, KINDS);
     const w0 = engine.initial(seed);
     this.frontierWorld = w0;
     this.keyframes.set(0, { world: w0, bytes: 0 });
     this.seg = [w0];
+    this.windowWorldBytes = Math.ceil(estimateWorldBytes(w0) / 4);
   }
 
   /** Events computed so far. */
@@ -80,14 +113,14 @@ export class History {
     return this.ended;
   }
 
-  /** Number of keyframes held (for the memory bound). */
+  /** Number of keyframes held. */
   get keyframeCount(): number {
     return this.keyframes.size;
   }
 
-  /** Events between keyframes right now. */
+  /** Events between keyframes where they are densest. */
   get keyframeInterval(): number {
-    return this.interval;
+    return this.base;
   }
 
   /** Indices of the worlds currently held one per event. */
@@ -95,60 +128,203 @@ export class History {
     return [this.lo, this.lo + this.seg.length - 1];
   }
 
+  /** Simulated time of the last event computed (0 before any). */
+  get frontierTime(): number {
+    return this.frontierWorld.time;
+  }
+
+  /**
+   * Makes world n quick to place (n ≤ frontier): re-simulates from the nearest keyframe in
+   * chunks of about `chunk` events, yielding progress between them, and leaves the world in
+   * the window. Nothing to do when n is held already.
+   */
+  *seek(n: number, chunk: number): Generator<{ label: string; done: number; total: number; time: number }, void> {
+    if (n === this.frontier || (n >= this.lo && n < this.lo + this.seg.length) || this.keyframes.has(n)) return;
+    let [k, w] = this.nearestKeyframe(n);
+    const total = n - k;
+    const from = k;
+    while (k < n) {
+      const step = Math.min(n - k, Math.max(this.base, chunk - (chunk % this.base)) - (k % this.base));
+      const r = this.engine.advance(w, step, {}, { keep: 'none', detail: false });
+      w = r.world;
+      k += r.count;
+      if (r.count < step) break;
+      if (k < n && k % this.base === 0 && Math.abs(k - this.focus) < 64 * this.base) this.remember(k, w);
+      if (k < n) yield { label: `going to event ${n}`, done: k - from, total, time: w.time };
+    }
+    this.lo = k;
+    this.seg = [w];
+  }
+
+  /** Estimated bytes held: records, the window and keyframes. */
+  get bytes(): number {
+    return this.recordBytes + this.seg.length * this.windowWorldBytes + this.keyframeTotal;
+  }
+
   /** Estimated bytes held by keyframes. */
   get keyframeBytes(): number {
     return this.keyframeTotal;
   }
 
-  private remember(n: number, w: World): void {
-    if (n % this.interval !== 0 || this.keyframes.has(n)) return;
-    const bytes = estimateWorldBytes(w);
-    this.keyframes.set(n, { world: w, bytes });
-    this.keyframeTotal += bytes;
-    while (this.keyframes.size > this.maxKeyframes || (this.keyframeTotal > this.keyframeBudget && this.keyframes.size > 2)) {
-      // thin out: keep every other keyframe and double the interval
-      this.interval *= 2;
-      for (const [k, kf] of [...this.keyframes]) {
-        if (k % this.interval !== 0) {
-          this.keyframes.delete(k);
-          this.keyframeTotal -= kf.bytes;
-        }
-      }
-    }
+  private get recordBytes(): number {
+    return this.records.length * 20 + SUMMARIES * 120;
   }
 
-  private record(ev: EngineEvent, after: World): void {
-    this.records.push(this.chain.next(ev, after));
-    this.remember(this.records.length, after);
+  /** Tells the history where the cursor is, so keyframes stay dense there. */
+  setFocus(n: number): void {
+    this.focus = n;
+  }
+
+  // ------------------------------------------------------------------ records
+
+  /** The record of event i (its summary recomputed when it is no longer kept). */
+  record(i: number): ReplayEvent {
+    const r = this.records.at(i);
+    r.summary = this.summary(i);
+    return r;
+  }
+
+  /** Time of event i (ns). */
+  timeOf(i: number): number {
+    return this.records.time(i);
+  }
+
+  /** The one-line summary of event i. */
+  summary(i: number): string {
+    const slot = i % SUMMARIES;
+    if (this.summaryAt[slot] === i) return this.summaryText[slot]!;
+    // recompute the neighbourhood at once: panes ask for runs of lines
+    const from = Math.max(0, i - 64);
+    const to = Math.min(this.frontier, i + 64);
+    const [k, kw] = this.nearestKeyframe(from);
+    let n = k;
+    this.engine.advance(kw, to - k, {
+      after: (ev) => {
+        if (n >= from) this.keepSummary(n, ev.summary);
+        n++;
+        return false;
+      },
+    }, { keep: 'none', detail: false });
+    return this.summaryAt[slot] === i ? this.summaryText[slot]! : '';
+  }
+
+  private keepSummary(i: number, text: string): void {
+    const slot = i % SUMMARIES;
+    this.summaryAt[slot] = i;
+    this.summaryText[slot] = text;
+  }
+
+  /** The number of events whose time is at most t. */
+  countUpTo(t: number): number {
+    let lo = 0;
+    let hi = this.records.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (this.records.time(mid) <= t) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  private record1(ev: EngineEvent, after: World): void {
+    this.chain.advance(ev, after);
+    const summary = ev.summary;
+    this.records.push(ev.time, codeOf(this.nodeIndex.get(ev.node)!, ev.type), this.chain.hi, this.chain.lo);
+    this.keepSummary(ev.index, summary);
     this.onNewEvent?.(ev, after);
   }
 
+  // ------------------------------------------------------------------ keyframes
+
+  private remember(n: number, w: World): void {
+    if (n % this.base !== 0 || this.keyframes.has(n)) return;
+    const bytes = estimateWorldBytes(w);
+    this.keyframes.set(n, { world: w, bytes });
+    this.keyframeTotal += bytes;
+    if (this.bytes > this.budget) this.thin();
+  }
+
+  /** A keyframe's worth: rounder event numbers and nearness to the cursor count for more. */
+  private worth(k: number): number {
+    const d = Math.abs(k - this.focus) / this.base;
+    return roundness(k / this.base) - Math.floor(Math.log2(1 + d / 64));
+  }
+
+  /** Drops the keyframes worth least until the history is back under 90 % of its budget. */
+  private thin(): void {
+    const target = this.budget * 0.9;
+    const all = [...this.keyframes.keys()].filter((k) => k !== 0);
+    all.sort((a, b) => this.worth(a) - this.worth(b) || Math.abs(b - this.focus) - Math.abs(a - this.focus));
+    for (const k of all) {
+      if (this.bytes <= target) break;
+      this.keyframeTotal -= this.keyframes.get(k)!.bytes;
+      this.keyframes.delete(k);
+    }
+  }
+
+  /** The latest held world at or before n: a keyframe, a world of the window, or the frontier. */
+  private nearestKeyframe(n: number): [number, World] {
+    let best = 0;
+    for (const k of this.keyframes.keys()) if (k <= n && k > best) best = k;
+    // the window's worlds are as good as keyframes
+    if (n >= this.lo) {
+      const w = Math.min(n, this.lo + this.seg.length - 1);
+      if (w > best) return [w, this.seg[w - this.lo]];
+    }
+    if (n >= this.frontier && this.frontier > best) return [this.frontier, this.frontierWorld];
+    return [best, this.keyframes.get(best)!.world];
+  }
+
+  /** The whole events from..to−1 (with their action phrases), recomputed from the nearest keyframe. */
+  detailedEvents(from: number, to: number): EngineEvent[] {
+    if (to <= from) return [];
+    const [k, kw] = this.nearestKeyframe(from);
+    const w = k < from ? this.engine.advance(kw, from - k, {}, { keep: 'none', detail: false }).world : kw;
+    return this.engine.advance(w, to - from, {}, { keep: 'all', detail: true }).events;
+  }
+
+  /** Keyframe indices below `n`, newest first (at most `max`). */
+  keyframesBelow(n: number, max: number): number[] {
+    return [...this.keyframes.keys()].filter((k) => k < n).sort((a, b) => b - a).slice(0, max);
+  }
+
+  /** The world of a keyframe (undefined when none is held at that index). */
+  keyframe(k: number): World | undefined {
+    return this.keyframes.get(k)?.world;
+  }
+
+  // ------------------------------------------------------------------ moving
+
   /**
-   * Extends the frontier by up to `max` events in batches, stopping early when `stop`
-   * says so after an event. Returns the events applied.
+   * Extends the frontier by up to `max` events in batches, stopping early when `stop` says so
+   * after an event (or `before` refuses the next one). Returns the number of events applied.
    */
-  extend(max: number, stop?: (ev: EngineEvent, w: World) => boolean, before?: (t: number) => boolean): EngineEvent[] {
-    const out: EngineEvent[] = [];
-    while (!this.ended && out.length < max) {
+  extend(max: number, stop?: (ev: EngineEvent, w: World) => boolean, before?: (t: number) => boolean): number {
+    let done = 0;
+    const detail = this.onNewEvent !== undefined;
+    while (!this.ended && done < max) {
       let halt = false;
-      const r = this.engine.advance(this.frontierWorld, Math.min(this.interval, max - out.length), {
-        before: (_d, t) => (before?.(t) ? ((halt = true), true) : false),
-        after: (ev, d) => {
-          out.push(ev);
-          // keyframes and digests need the world after this event; within a batch that is the draft
-          this.records.push(this.chain.next(ev, d));
-          this.onNewEvent?.(ev, d);
-          if (stop?.(ev, d)) halt = true;
-          // end the batch at keyframe boundaries so the keyframe is a finished, frozen world
-          return halt || this.records.length % this.interval === 0;
+      const r = this.engine.advance(
+        this.frontierWorld,
+        Math.min(this.base - (this.records.length % this.base), max - done),
+        {
+          before: before ? (_d, t) => (before(t) ? ((halt = true), true) : false) : undefined,
+          after: (ev, d) => {
+            // keyframes and digests need the world after this event; within a batch that is the draft
+            this.record1(ev, d);
+            if (stop?.(ev, d)) halt = true;
+            return halt;
+          },
         },
-      });
+        { keep: 'none', detail },
+      );
+      done += r.count;
       this.frontierWorld = r.world;
       this.remember(this.records.length, r.world);
       if (r.exhausted) this.ended = true;
-      if (halt || r.events.length === 0) break;
+      if (halt || r.count === 0) break;
     }
-    return out;
+    return done;
   }
 
   /** The world after `n` events (n ≤ frontier); held worlds are returned, others recomputed without moving the window. */
@@ -159,35 +335,25 @@ export class History {
     return this.replayTo(n).world;
   }
 
-  /** Keyframe indices below `n`, newest first (at most `max`). */
-  keyframesBelow(n: number, max: number): number[] {
-    const out: number[] = [];
-    for (let k = n - 1 - ((n - 1) % this.interval); k >= 0 && out.length < max; k -= this.interval) {
-      if (this.keyframes.has(k)) out.push(k);
-    }
-    return out;
-  }
-
-  /** The world of a keyframe (undefined when none is held at that index). */
-  keyframe(k: number): World | undefined {
-    return this.keyframes.get(k)?.world;
-  }
-
-  private nearestKeyframe(n: number): [number, World] {
-    // keyframes sit at multiples of the interval (older thinning only removed some), so look there first
-    for (let k = n - (n % this.interval); k > 0; k -= this.interval) {
-      const kf = this.keyframes.get(k);
-      if (kf) return [k, kf.world];
-    }
-    return [0, this.keyframes.get(0)!.world];
-  }
-
-  /** Recomputes the world after n events (and the event that led to it) from the nearest keyframe before it. */
-  replayTo(n: number): { world: World; event: EngineEvent | null } {
+  /**
+   * Recomputes the world after n events (and the event that led to it) from the nearest
+   * keyframe before it, leaving keyframes behind on the way where they are worth keeping.
+   */
+  replayTo(n: number, detail = true): { world: World; event: EngineEvent | null } {
     if (n === 0) return { world: this.keyframes.get(0)!.world, event: null };
-    const [k, kw] = this.nearestKeyframe(n - 1);
-    const r = this.engine.advance(kw, n - k);
-    return { world: r.world, event: r.events[r.events.length - 1] ?? null };
+    let [k, w] = this.nearestKeyframe(n - 1);
+    let event: EngineEvent | null = null;
+    // in steps of the keyframe interval, so the way there can be kept as keyframes
+    while (k < n) {
+      const step = Math.min(n - k, this.base - (k % this.base));
+      const r = this.engine.advance(w, step, {}, { keep: 'last', detail: detail && k + step === n });
+      w = r.world;
+      k += r.count;
+      event = r.events[0] ?? event;
+      if (r.count < step) break;
+      if (k < n && Math.abs(k - this.focus) < 64 * this.base) this.remember(k, w);
+    }
+    return { world: w, event };
   }
 
   /**
@@ -207,9 +373,10 @@ export class History {
 
   /** Places the window at world n (keeping it when n is already held) and returns that world. */
   place(n: number): World {
+    this.focus = n;
     const i = n - this.lo;
     if (i >= 0 && i < this.seg.length) return this.seg[i];
-    const r = this.replayTo(n);
+    const r = n === this.frontier ? { world: this.frontierWorld, event: null } : this.replayTo(n);
     if (r.event) this.cachedEvent = { n, event: r.event };
     this.lo = n;
     this.seg = [r.world];
@@ -218,6 +385,7 @@ export class History {
 
   /** Moves from world n to world n+1, extending the frontier if needed; null at the end of the run. */
   forward(n: number): World | null {
+    this.focus = n + 1;
     const i = n + 1 - this.lo;
     if (i >= 1 && i < this.seg.length) return this.seg[i];
     if (n + 1 > this.frontier && this.ended) return null;
@@ -228,8 +396,9 @@ export class History {
       return null;
     }
     if (n + 1 > this.frontier) {
-      this.record(event, world);
+      this.record1(event, world);
       this.frontierWorld = world;
+      this.remember(n + 1, world);
     }
     this.cachedEvent = { n: n + 1, event };
     // the window holds consecutive worlds: keep the part up to the cursor and add the new one
@@ -247,12 +416,13 @@ export class History {
   /** Moves from world n to world n−1, rebuilding the window backwards when needed; null at the start. */
   back(n: number): World | null {
     if (n <= 0) return null;
+    this.focus = n - 1;
     const i = n - 1 - this.lo;
     if (i >= 0 && i < this.seg.length) return this.seg[i];
-    // rebuild a window ending at the cursor: one batch to its start, then one produce per event
+    // rebuild a window ending at the cursor: one batch to its start, then one step per event
     const span = Math.min(n, Math.max(16, Math.floor(this.window / 4)));
     const start = n - span;
-    const worlds: World[] = [this.replayTo(start).world];
+    const worlds: World[] = [this.replayTo(start, false).world];
     let w = worlds[0];
     for (let k = start; k < n; k++) {
       w = this.engine.step(w).world;

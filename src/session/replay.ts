@@ -1,7 +1,9 @@
 /**
- * Replay files (FORMAT.md §7): the embedded inputs with their SHA-256, the seed,
- * breakpoints, expectations, the stop, every event with its digest, and a checksum over
- * everything else. Export, import with validation, and verification by re-running.
+ * Replay files: the embedded inputs with their SHA-256, the seed, breakpoints,
+ * expectations, the stop, every event with its digest, and a checksum. What bellstep writes
+ * is `bellstep/replay@2` (replay-v2.ts: columns in blocks, written as the run goes); files of
+ * the first version, `@1` (one JSON object per event, a checksum over canonical JSON), still
+ * load and verify. Both load into one shape, `ReplayFile`, with the events as columns.
  */
 import { plural } from '../model/words.js';
 import { createHash } from 'node:crypto';
@@ -9,9 +11,12 @@ import { basename } from 'node:path';
 import type { Engine, EngineEvent, World } from '../engine/index.js';
 import { InputError } from '../model/errors.js';
 import type { ProgramSet, NoiseModel } from '../model/types.js';
-import { eventDigest, GENESIS_DIGEST } from './digest.js';
+import { eventDigestHalves, GENESIS_DIGEST } from './digest.js';
+import { ListEvents, type ReplayEvents } from './replay-columns.js';
+import { checksumV2, decodeEvents, REPLAY_FORMAT_V2, ReplayWriter, type ReplayFinal, type ReplayHead, type ReplayLimits } from './replay-v2.js';
 import type { Stop } from './summary.js';
 
+/** The first version's format tag; its files still load. */
 export const REPLAY_FORMAT = 'bellstep/replay@1';
 export const TOOL = { name: 'bellstep', version: '0.1.0' } as const;
 
@@ -26,11 +31,30 @@ export interface ReplayEvent {
   time_ns: number;
   node: string;
   kind: string;
-  summary: string;
+  /** The one-line text; null where a `@2` file did not keep it (it keeps the last events' only). */
+  summary: string | null;
   digest: string;
 }
 
+/** A loaded replay of either version. */
 export interface ReplayFile {
+  format: string;
+  tool: { name: string; version: string };
+  inputs: { program_set: ReplayInput; noise: ReplayInput | null };
+  seed: number;
+  breakpoints: string[];
+  expectations: string[];
+  stop: Stop;
+  /** The limits the run was made under (`@2`; null in an `@1` file, which did not record them). */
+  limits: ReplayLimits | null;
+  /** The event count and last digest the run ended with (`@2`; null in an `@1` file). */
+  final: ReplayFinal | null;
+  events: ReplayEvents;
+  checksum: string;
+}
+
+/** An `@1` file as it stands on disk (one object per event). */
+export interface ReplayFileV1 {
   format: string;
   tool: { name: string; version: string };
   inputs: { program_set: ReplayInput; noise: ReplayInput | null };
@@ -78,8 +102,8 @@ function sortedKeys(v: unknown): unknown {
   return v;
 }
 
-/** The checksum of a replay object: SHA-256 of the canonical JSON of everything but `checksum`. */
-export function replayChecksum(r: Omit<ReplayFile, 'checksum'> & { checksum?: string }): string {
+/** The checksum of an `@1` replay object: SHA-256 of the canonical JSON of everything but `checksum`. */
+export function replayChecksum(r: Omit<ReplayFileV1, 'checksum'> & { checksum?: string }): string {
   const { checksum: _omit, ...rest } = r;
   return `sha256:${sha256(canonicalJson(rest))}`;
 }
@@ -93,8 +117,8 @@ function input(file: string, text: string): ReplayInput {
   return { file: basename(file), text, sha256: sha256(text) };
 }
 
-/** Serialises a replay with one event per line, so files diff well. */
-export function serializeReplay(r: ReplayFile): string {
+/** Serialises an `@1` replay with one event per line (kept to write old-version files in tests). */
+export function serializeReplay(r: ReplayFileV1): string {
   const head = Object.entries(r)
     .filter(([k]) => k !== 'events' && k !== 'checksum')
     .map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
@@ -102,14 +126,14 @@ export function serializeReplay(r: ReplayFile): string {
   return `{\n${head.join(',\n')},\n  "events": [\n${events}\n  ],\n  "checksum": ${JSON.stringify(r.checksum)}\n}\n`;
 }
 
-/** Builds a replay file from inputs and recorded events. */
+/** Builds an `@1` replay object from inputs and recorded events (the first version's layout). */
 export function buildReplay(
   programSet: ProgramSet,
   noise: NoiseModel,
   meta: { seed: number; breakpoints: readonly string[]; expectations: readonly string[] },
   stop: Stop,
   events: ReplayEvent[],
-): ReplayFile {
+): ReplayFileV1 {
   const body = {
     format: REPLAY_FORMAT,
     tool: { ...TOOL },
@@ -128,40 +152,90 @@ export function buildReplay(
 
 /** The chain of per-event digests: each event's record carries the digest of the world after it. */
 export class DigestChain {
-  private digest = GENESIS_DIGEST;
+  /** The digest after the last event, as two 32-bit halves (the genesis digest is all zeros). */
+  hi = 0;
+  lo = 0;
 
   /** The record of the next event, given the world after it. */
   next(ev: EngineEvent, w: World): ReplayEvent {
-    this.digest = eventDigest(this.digest, ev, w);
-    return replayEvent(ev, this.digest);
+    this.advance(ev, w);
+    return replayEvent(ev, this.hex);
+  }
+
+  /** Moves the chain past an event without building its record. */
+  advance(ev: EngineEvent, w: World): void {
+    [this.hi, this.lo] = eventDigestHalves(this.hi, this.lo, ev, w);
+  }
+
+  /** The digest after the last event, as 16 hex digits. */
+  get hex(): string {
+    return (this.hi >>> 0).toString(16).padStart(8, '0') + (this.lo >>> 0).toString(16).padStart(8, '0');
   }
 }
 
-/** Records events and digests during a run and produces the replay file. */
+/** What a recording says about itself: the seed, breakpoints, expectations and limits it ran with. */
+export interface RecordingMeta {
+  readonly seed: number;
+  readonly breakpoints: readonly string[];
+  readonly expectations: readonly string[];
+  readonly limits?: ReplayLimits;
+}
+
+/** The head of a `@2` file for a network's inputs and a recording's meta. */
+export function replayHead(programSet: ProgramSet, noise: NoiseModel, meta: RecordingMeta): ReplayHead {
+  return {
+    tool: { ...TOOL },
+    inputs: { program_set: input(programSet.file, programSet.text), noise: noise.file ? input(noise.file, noise.text) : null },
+    seed: meta.seed,
+    breakpoints: [...meta.breakpoints],
+    expectations: [...meta.expectations],
+    limits: meta.limits ?? { until_ns: null, events: null },
+  };
+}
+
+/**
+ * Records events and digests during a run as a `@2` file. With a sink, the file streams out
+ * as the run goes (memory stays flat); without one, `finish` returns the whole text.
+ */
 export class Recorder {
-  readonly events: ReplayEvent[] = [];
   private readonly chain = new DigestChain();
+  private readonly writer: ReplayWriter;
+  private readonly parts: string[] = [];
 
   constructor(
     private readonly engine: Engine,
-    private readonly meta: { seed: number; breakpoints: readonly string[]; expectations: readonly string[] },
-  ) {}
+    meta: RecordingMeta,
+    sink?: (chunk: string) => void,
+  ) {
+    const { programSet, noise } = engine.net;
+    this.writer = new ReplayWriter(replayHead(programSet, noise, meta), engine.net.nodeIds, sink ?? ((c) => void this.parts.push(c)));
+  }
 
   /** Adds an event with the world after it. */
   add(ev: EngineEvent, w: World): void {
-    this.events.push(this.chain.next(ev, w));
+    this.chain.advance(ev, w);
+    this.writer.add(ev.time, ev.node, ev.type, this.chain.hi, this.chain.lo, ev.summary);
   }
 
-  /** The replay text for a run that ended with `stop`. */
+  /** Events recorded so far. */
+  get count(): number {
+    return this.writer.events;
+  }
+
+  /** The digest after the last event recorded. */
+  get lastDigest(): string {
+    return this.writer.events === 0 ? GENESIS_DIGEST : this.chain.hex;
+  }
+
+  /** Ends the file with `stop`; returns its text when there is no sink (else the empty string). */
   finish(stop: Stop): string {
-    const { programSet, noise } = this.engine.net;
-    return serializeReplay(buildReplay(programSet, noise, this.meta, stop, this.events));
+    this.writer.finish(stop, { events: this.writer.events, digest: this.lastDigest });
+    return this.parts.join('');
   }
 
-  /** The replay of the run so far, for the automatic replay written on an internal error. */
+  /** Ends the file as the automatic replay of a run that crashed: `stop.reason` is `crash`. */
   partial(why: string): string {
-    const n = this.events.length;
-    return this.finish({ reason: 'events', detail: `automatic replay of the first ${plural(n, 'event')}: ${why}` });
+    return this.finish({ reason: 'crash', detail: `automatic replay of the first ${plural(this.writer.events, 'event')}: ${why}` });
   }
 }
 
@@ -169,11 +243,64 @@ function bad(message: string, fix: string, file?: string): InputError {
   return new InputError({ code: 'replay', file, message, fix });
 }
 
+const STOP_REASONS = new Set(['until', 'events', 'idle', 'stall', 'breakpoint', 'crash']);
+const HEX16 = /^[0-9a-f]{16}$/;
+
+/** Checks a parsed value against the shape a replay must have; returns what is wrong, or undefined. */
+type Check = (v: unknown, at: string) => string | undefined;
+
+const isObj = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object' && !Array.isArray(v);
+const str: Check = (v, at) => (typeof v === 'string' ? undefined : `${at} must be text`);
+const int: Check = (v, at) => (typeof v === 'number' && Number.isSafeInteger(v) && v >= 0 ? undefined : `${at} must be a whole number ≥ 0`);
+const seedCheck: Check = (v, at) => (typeof v === 'number' && Number.isSafeInteger(v) ? undefined : `${at} must be a whole number`);
+const hex16: Check = (v, at) => (typeof v === 'string' && HEX16.test(v) ? undefined : `${at} must be 16 hex digits`);
+const nullable = (c: Check): Check => (v, at) => (v === null ? undefined : c(v, at));
+const list = (c: Check): Check => (v, at) => {
+  if (!Array.isArray(v)) return `${at} must be a list`;
+  for (let i = 0; i < v.length; i++) {
+    const bad = c(v[i], `${at}[${i}]`);
+    if (bad) return bad;
+  }
+  return undefined;
+};
+const record = (fields: Record<string, Check>): Check => (v, at) => {
+  if (!isObj(v)) return `${at} must be an object`;
+  for (const [k, c] of Object.entries(fields)) {
+    if (!Object.hasOwn(v, k)) return `${at} has no "${k}"`;
+    const bad = c(v[k], `${at}.${k}`);
+    if (bad) return bad;
+  }
+  return undefined;
+};
+const inputShape = record({ file: str, text: str, sha256: str });
+const eventShape = (summary: Check): Check => record({ index: int, time_ns: int, node: str, kind: str, summary, digest: hex16 });
+const stopShape: Check = (v, at) => record({ reason: str, detail: str })(v, at) ?? (STOP_REASONS.has((v as Stop).reason) ? undefined : `${at}.reason must be one of ${[...STOP_REASONS].join(', ')}`);
+
+const COMMON: Record<string, Check> = {
+  tool: record({ name: str, version: str }),
+  inputs: record({ program_set: inputShape, noise: nullable(inputShape) }),
+  seed: seedCheck,
+  breakpoints: list(str),
+  expectations: list(str),
+  stop: stopShape,
+  checksum: str,
+};
+
+const V2_SHAPE = record({
+  ...COMMON,
+  limits: record({ until_ns: nullable(int), events: nullable(int) }),
+  tables: record({ nodes: list(str), kinds: list(str) }),
+  blocks: list(record({ first: int, count: int, start_ns: int, time: str, event: str, digest: str })),
+  recent: list(eventShape(nullable(str))),
+  final: record({ events: int, digest: hex16 }),
+});
+
+/** Parses and validates a replay file of either version; refuses foreign, truncated, newer, misshapen or tampered files (exit 2). */
+
 const TOP_KEYS: readonly string[] = ['format', 'tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'stop', 'events', 'checksum'];
+const DIGEST = /^[0-9a-f]{16}$/;
 const INPUT_KEYS: readonly string[] = ['file', 'text', 'sha256'];
 
-/** Stop reasons a `bellstep/replay@1` file may hold. */
-const STOP_REASONS: readonly string[] = ['until', 'events', 'idle', 'stall', 'breakpoint', 'crash'];
 
 /**
  * Checks that a parsed `bellstep/replay@1` object has the shape of one, field by field,
@@ -181,7 +308,7 @@ const STOP_REASONS: readonly string[] = ['until', 'events', 'idle', 'stall', 'br
  * belongs or arrays nested thousands deep are refused here with the field that is wrong.
  * Extra keys are left alone: the checksum covers them.
  */
-export function validateReplayShape(raw: unknown, file?: string): ReplayFile {
+export function validateReplayShape(raw: unknown, file?: string): ReplayFileV1 {
   const fix = 'use the replay file as bellstep wrote it; record the run again if it was edited';
   const kind = (v: unknown): string =>
     v === null ? 'null' : Array.isArray(v) ? 'a list' : typeof v === 'object' ? 'an object' : typeof v === 'string' ? `text ${JSON.stringify(v.length > 40 ? `${v.slice(0, 40)}…` : v)}` : `${typeof v} ${String(v)}`;
@@ -237,7 +364,7 @@ export function validateReplayShape(raw: unknown, file?: string): ReplayFile {
   text(stop, 'reason', 'stop');
   text(stop, 'detail', 'stop');
   only(stop, ['reason', 'detail'], 'stop');
-  if (!STOP_REASONS.includes(stop.reason as string)) wrong('stop.reason', `one of ${STOP_REASONS.join(', ')}`, stop.reason);
+  if (!STOP_REASONS.has(stop.reason as string)) wrong('stop.reason', `one of ${[...STOP_REASONS].join(', ')}`, stop.reason);
   if (!Array.isArray(r.events)) wrong('events', 'a list of events', r.events);
   const events = r.events as unknown[];
   for (let i = 0; i < events.length; i++) {
@@ -246,10 +373,11 @@ export function validateReplayShape(raw: unknown, file?: string): ReplayFile {
     count(e.index, `${field}.index`);
     count(e.time_ns, `${field}.time_ns`);
     for (const k of ['node', 'kind', 'summary', 'digest']) text(e, k, field);
+    if (!DIGEST.test(e.digest as string)) wrong(`${field}.digest`, '16 hexadecimal digits', e.digest);
     only(e, EVENT_KEYS, field);
   }
   text(r, 'checksum', '');
-  return r as unknown as ReplayFile;
+  return r as unknown as ReplayFileV1;
 }
 
 /** Parses and validates a replay file; refuses foreign, truncated, newer or tampered files (exit 2). */
@@ -265,27 +393,59 @@ export function parseReplay(text: string, file?: string): ReplayFile {
       file,
     );
   }
-  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) throw bad('not a replay file (expected a JSON object)', 'pass a file written by `bellstep run --record`', file);
-  const r = raw as Partial<ReplayFile>;
-  if (typeof r.format !== 'string' || !r.format.startsWith('bellstep/replay@')) {
-    throw bad(`not a bellstep replay file (format is ${JSON.stringify(r.format ?? null)})`, `expected "format": "${REPLAY_FORMAT}"`, file);
+  if (!isObj(raw)) throw bad('not a replay file (expected a JSON object)', 'pass a file written by `bellstep run --record`', file);
+  const format = raw.format;
+  if (typeof format !== 'string' || !format.startsWith('bellstep/replay@')) {
+    throw bad(`not a bellstep replay file (format is ${JSON.stringify(format ?? null)})`, `expected "format": "${REPLAY_FORMAT_V2}"`, file);
   }
-  if (r.format !== REPLAY_FORMAT) {
-    const v = Number(r.format.split('@')[1]);
+  if (format !== REPLAY_FORMAT && format !== REPLAY_FORMAT_V2) {
+    const v = Number(format.split('@')[1]);
     throw bad(
-      Number.isFinite(v) && v > 1 ? `the replay was written by a newer bellstep (format ${r.format}); this one reads ${REPLAY_FORMAT}` : `unsupported replay format ${r.format}`,
+      Number.isFinite(v) && v > 2 ? `the replay was written by a newer bellstep (format ${format}); this one reads ${REPLAY_FORMAT} and ${REPLAY_FORMAT_V2}` : `unsupported replay format ${format}`,
       'open it with the bellstep version that wrote it (see its "tool" field)',
       file,
     );
   }
-  const full = validateReplayShape(raw, file);
-  if (replayChecksum(full) !== full.checksum) {
+  const v2 = format === REPLAY_FORMAT_V2;
+  for (const key of Object.keys(v2 ? { ...COMMON, limits: 0, tables: 0, blocks: 0, recent: 0, final: 0 } : { ...COMMON, events: 0 })) {
+    if (!Object.hasOwn(raw, key)) throw bad(`the replay file has no "${key}" (truncated or edited by hand)`, 'use the complete file as written by bellstep', file);
+  }
+  // the checksum first: a file changed by accident is named as such, whatever else is wrong with it
+  const checksum = typeof raw.checksum === 'string' ? raw.checksum : '';
+  const expected = v2 ? checksumV2(text) : Array.isArray(raw.events) ? safeChecksum(raw) : undefined;
+  // an @1 object whose checksum cannot even be computed (lists nested too deep) is wrong in a
+  // field that validateReplayShape names
+  if (!v2 && expected === undefined) validateReplayShape(raw, file);
+  if (expected === undefined || expected !== checksum) {
     throw bad('checksum mismatch: the replay file was changed after it was written', 'record the run again; do not edit replay files by hand', file);
   }
-  for (const [name, inp] of [['program set', full.inputs.program_set], ['noise model', full.inputs.noise]] as const) {
+  if (v2) {
+    const wrong = V2_SHAPE(raw, 'the file');
+    if (wrong) throw bad(`the replay file has the wrong shape: ${wrong}`, 'use the file as written by bellstep', file);
+  } else validateReplayShape(raw, file);
+  const r = raw as unknown as ReplayFileV1 & { limits: ReplayLimits; final: ReplayFinal; tables: { nodes: string[]; kinds: string[] }; blocks: []; recent: ReplayEvent[] };
+  for (const [name, inp] of [['program set', r.inputs.program_set], ['noise model', r.inputs.noise]] as const) {
     if (inp && sha256(inp.text) !== inp.sha256) {
       throw bad(`the embedded ${name} does not match its SHA-256`, 'record the run again; do not edit replay files by hand', file);
     }
   }
-  return full;
+  let events: ReplayEvents;
+  if (v2) {
+    try {
+      events = decodeEvents(r.tables, r.blocks, r.recent);
+    } catch (e) {
+      throw bad(`the replay file's events cannot be read: ${(e as Error).message}`, 'use the file as written by bellstep', file);
+    }
+  } else events = new ListEvents(r.events);
+  const { tool, inputs, seed, breakpoints, expectations, stop } = r;
+  return { format, tool, inputs, seed, breakpoints, expectations, stop, limits: v2 ? r.limits : null, final: v2 ? r.final : null, events, checksum };
+}
+
+/** The `@1` checksum of a raw object, or undefined when it cannot be computed (a value nested too deep). */
+function safeChecksum(raw: Record<string, unknown>): string | undefined {
+  try {
+    return replayChecksum(raw as unknown as ReplayFileV1);
+  } catch {
+    return undefined;
+  }
 }

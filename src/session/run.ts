@@ -12,7 +12,7 @@ import { breakpointScanner, type Breakpoint } from './breakpoints.js';
 import { checkDebugExpr } from './expr-check.js';
 import { observe, sawText } from './observe.js';
 import { debugScope } from './debug-functions.js';
-import { summarize, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
+import { summarize, summaryHead, type ExpectationResult, type RunSummary, type Stop } from './summary.js';
 
 /** Events a run applies when neither --until nor --events is given, so that it always ends. */
 export const DEFAULT_MAX_EVENTS = 1_000_000;
@@ -29,17 +29,17 @@ export interface Expectation {
  * Parses an expectation and checks it against the network, so that a wrong name, function
  * or number of arguments is an input error (with its column) before anything runs.
  */
-export function parseExpectation(spec: string, net: Net): Expectation {
+export function parseExpectation(spec: string, net: Net, field = '--expect'): Expectation {
   let compiled: Compiled;
   try {
     compiled = parseExpr(spec);
   } catch (e) {
     if (e instanceof ExprError) {
-      throw new InputError({ code: 'expression', field: '--expect', message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
+      throw new InputError({ code: 'expression', field, message: `${e.detail} at column ${e.col} of "${spec}"`, fix: `check the expression:\n${e.excerpt()}` });
     }
     throw e;
   }
-  checkDebugExpr(net, spec, compiled, { field: '--expect', what: 'expectation', pairVars: false });
+  checkDebugExpr(net, spec, compiled, { field, what: 'expectation', pairVars: false });
   return { spec, compiled };
 }
 
@@ -58,7 +58,10 @@ export interface RunOptions {
 export interface RunResult {
   readonly world: World;
   readonly stop: Stop;
+  /** The run summary (built when first read). */
   readonly summary: RunSummary;
+  /** The summary without its delivery records, for output that streams them (`writeSummaryJson`). */
+  readonly head: RunSummary;
   /** The breakpoint that stopped the run, if one did. */
   readonly breakpoint?: Breakpoint;
 }
@@ -142,7 +145,21 @@ function runToStop(engine: Engine, opts: RunOptions, from?: World): RunResult {
   }
   const stall = stop.reason === 'stall' ? stallReport(engine.net, world) : null;
   const expectations = checkExpectations(engine, world, opts.expectations ?? []);
-  return { world, stop, summary: summarize(engine.net, world, opts.seed, stop, expectations, stall), breakpoint: hitBp };
+  const seed = opts.seed;
+  const end = stop;
+  let summary: RunSummary | undefined;
+  return {
+    world,
+    stop,
+    breakpoint: hitBp,
+    get summary(): RunSummary {
+      summary ??= summarize(engine.net, world, seed, end, expectations, stall);
+      return summary;
+    },
+    get head(): RunSummary {
+      return summaryHead(engine.net, world, seed, end, expectations, stall);
+    },
+  };
 }
 
 /** One line per expectation, for text output: `FAIL delivered() > 3 (delivered() = 2)`. */

@@ -11,12 +11,16 @@ import { findingRule, lint, type Finding, type RuleOrigin } from '../model/index
 import { breakpointScanner, conditionHolds, parseBreakpoint, type Breakpoint, type Hit } from './breakpoints.js';
 import { debugScope } from './debug-functions.js';
 import { History, type HistoryOptions } from './history.js';
-import { buildReplay, serializeReplay } from './replay.js';
+import { GENESIS_DIGEST } from './digest.js';
+import { LongOp, Pacer, type Progress } from './long-op.js';
+import { replayHead } from './replay.js';
+import { RECENT, ReplayWriter } from './replay-v2.js';
+import { formatDuration } from '../model/units.js';
 import type { Stop } from './summary.js';
 
 /** Why a continue, reverse-continue or jump ended. */
 export interface SessionStop {
-  readonly reason: 'breakpoint' | 'stall' | 'idle' | 'start' | 'limit' | 'event' | 'time';
+  readonly reason: 'breakpoint' | 'stall' | 'idle' | 'start' | 'limit' | 'event' | 'time' | 'cancelled';
   readonly detail: string;
   readonly breakpoint?: number;
 }
@@ -138,39 +142,84 @@ export class Session {
 
   /** Places the cursor after `n` events (extending the run if needed). */
   goto(n: number): SessionStop {
-    const target = Math.max(0, Math.floor(n));
-    if (target > this.history.frontier) this.extendTo(target);
-    this.cursorAt = Math.min(target, this.history.frontier);
-    this.history.place(this.cursorAt);
-    this.lastStop =
-      this.cursorAt < target
-        ? { reason: this.ending() ?? 'idle', detail: `the run ends after ${plural(this.cursorAt, 'event')}` }
-        : { reason: 'event', detail: 'went to this event' };
-    return this.lastStop;
+    return this.startGoto(n).finish();
   }
 
   /** Places the cursor after the last event at or before simulated time t (ns). */
   gotoTime(t: number): SessionStop {
-    const recs = this.history.records;
-    if (recs.length === 0 || recs[recs.length - 1].time_ns <= t) {
-      this.history.extend(Number.MAX_SAFE_INTEGER, undefined, (next) => next > t);
-    }
-    // binary search: the number of events with time <= t
-    let lo = 0;
-    let hi = recs.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (recs[mid].time_ns <= t) lo = mid + 1;
-      else hi = mid;
-    }
-    this.cursorAt = lo;
-    this.history.place(lo);
-    this.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${plural(lo, 'event')})` };
-    return this.lastStop;
+    return this.startGotoTime(t).finish();
   }
 
-  private extendTo(n: number): void {
-    this.history.extend(n - this.history.frontier);
+  /** A go to event `n` in slices (see long-op.ts); Esc leaves the cursor on the world reached. */
+  startGoto(n: number): LongOp<SessionStop> {
+    const target = Math.max(0, Math.floor(n));
+    const from = this.cursorAt;
+    const label = `going to event ${target}`;
+    const progress = (): Progress => ({ label, done: Math.abs(this.history.frontier - from), total: Math.abs(target - from), time: this.history.frontierTime });
+    // a generator cannot be an arrow function, so the steps reach the session through a name
+    // eslint-disable-next-line @typescript-eslint/no-this-alias
+    const self = this;
+    function* steps(): Generator<Progress, SessionStop> {
+      const pace = new Pacer();
+      // keyframes are kept densest where the cursor is going
+      self.history.setFocus(target);
+      while (self.history.frontier < target && !self.history.atEnd) {
+        const t0 = performance.now();
+        const ran = self.history.extend(Math.min(pace.size, target - self.history.frontier));
+        pace.took(ran, performance.now() - t0);
+        if (ran === 0) break;
+        yield progress();
+      }
+      const to = Math.min(target, self.history.frontier);
+      yield* self.history.seek(to, pace.size);
+      self.cursorAt = to;
+      self.history.place(to);
+      self.lastStop = to < target ? { reason: self.ending() ?? 'idle', detail: `the run ends after ${plural(to, 'event')}` } : { reason: 'event', detail: 'went to this event' };
+      return self.lastStop;
+    }
+    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress());
+  }
+
+  /** A go to simulated time t in slices. */
+  startGotoTime(t: number): LongOp<SessionStop> {
+    const from = this.cursorAt;
+    const label = `going to ${formatDuration(t)}`;
+    const progress = (): Progress => ({ label, done: this.history.frontier - from, total: null, time: this.history.frontierTime });
+    // a generator cannot be an arrow function, so the steps reach the session through a name
+    // eslint-disable-next-line @typescript-eslint/no-this-alias
+    const self = this;
+    function* steps(): Generator<Progress, SessionStop> {
+      const pace = new Pacer();
+      const h = self.history;
+      while (!h.atEnd && (h.frontier === 0 || h.timeOf(h.frontier - 1) <= t)) {
+        h.setFocus(h.frontier);
+        const t0 = performance.now();
+        let halted = false;
+        const ran = h.extend(pace.size, undefined, (next) => (next > t ? (halted = true) : false));
+        pace.took(ran, performance.now() - t0);
+        if (halted || ran === 0) break;
+        yield progress();
+      }
+      const to = h.countUpTo(t);
+      yield* h.seek(to, pace.size);
+      self.cursorAt = to;
+      h.place(to);
+      self.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${plural(to, 'event')})` };
+      return self.lastStop;
+    }
+    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress());
+  }
+
+  /**
+   * Where a cancelled forward operation leaves the cursor: on the frontier, if the operation
+   * had moved past where it started, else where it was.
+   */
+  private stopAtFrontierOr(from: number, why: string): SessionStop {
+    const at = Math.max(from, this.history.frontier > from ? this.history.frontier : from);
+    this.cursorAt = at;
+    this.history.place(at);
+    this.lastStop = { reason: 'cancelled', detail: `${why} after ${plural(Math.abs(at - from), 'event')}` };
+    return this.lastStop;
   }
 
   // ------------------------------------------------------------------ breakpoints
@@ -205,29 +254,56 @@ export class Session {
 
   /** Runs forward from the cursor until a breakpoint hits, the run ends, or the limit. */
   continue(): SessionStop {
+    return this.startContinue().finish();
+  }
+
+  /** A continue in slices; Esc leaves the cursor on the world reached. */
+  startContinue(): LongOp<SessionStop> {
     const active = this.bps.filter((b) => b.enabled);
     const start = this.cursorAt;
     const scan = breakpointScanner(this.engine.net, active, this.world());
-    const found: { hit?: Hit & { at: number } } = {};
+    let hit: (Hit & { at: number }) | undefined;
     const onEvent = (ev: EngineEvent, w: World): boolean => {
       const h = scan(ev, w);
-      if (h) found.hit = { at: ev.index + 1, ...h };
+      if (h) hit = { at: ev.index + 1, ...h };
       return h !== undefined;
     };
-    // events already computed: replay them from the cursor in one batch
-    let w = this.world();
     let at = start;
-    while (!found.hit && at < this.history.frontier) {
-      const r = this.engine.advance(w, Math.min(4096, this.history.frontier - at), { after: (ev, d) => onEvent(ev, d) });
-      w = r.world;
-      at += r.events.length;
-      if (r.events.length === 0) break;
+    let time = this.world().time;
+    const progress = (): Progress => ({ label: 'running forward', done: at - start, total: null, time });
+    // a generator cannot be an arrow function, so the steps reach the session through a name
+    // eslint-disable-next-line @typescript-eslint/no-this-alias
+    const self = this;
+    function* steps(): Generator<Progress, SessionStop> {
+      const pace = new Pacer();
+      // events already computed: re-run them from the cursor, chunk by chunk
+      let w = self.world();
+      while (!hit && at < self.history.frontier) {
+        const t0 = performance.now();
+        const r = self.engine.advance(w, Math.min(pace.size, self.history.frontier - at), { after: onEvent }, { keep: 'none', detail: false });
+        pace.took(r.count, performance.now() - t0);
+        w = r.world;
+        at += r.count;
+        time = w.time;
+        if (r.count === 0) break;
+        if (!hit) yield progress();
+      }
+      while (!hit && at >= self.history.frontier && !self.history.atEnd && at - start < self.continueLimit) {
+        self.history.setFocus(at);
+        const t0 = performance.now();
+        const ran = self.history.extend(Math.min(pace.size, self.continueLimit - (at - start)), onEvent);
+        pace.took(ran, performance.now() - t0);
+        at = self.history.frontier;
+        time = self.history.frontierTime;
+        if (ran === 0) break;
+        if (!hit) yield progress();
+      }
+      return self.endContinue(hit, at, active);
     }
-    if (!found.hit && at >= this.history.frontier) {
-      this.history.extend(this.continueLimit - (at - start), (ev, d) => onEvent(ev, d));
-    }
-    const hit = found.hit as (Hit & { at: number }) | undefined;
-    if (!hit) at = Math.max(at, this.history.frontier);
+    return new LongOp(steps(), () => this.endContinue(undefined, at, active, true), progress());
+  }
+
+  private endContinue(hit: (Hit & { at: number }) | undefined, at: number, active: readonly Breakpoint[], cancelled = false): SessionStop {
     if (hit) {
       this.hitEvents.get(hit.bp.id)?.add(hit.at - 1);
       this.cursorAt = hit.at;
@@ -235,9 +311,14 @@ export class Session {
       this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${hit.bp.id}: ${hit.what}`, breakpoint: hit.bp.id };
       return this.lastStop;
     }
+    const ran = at - this.cursorAt;
     this.cursorAt = at;
     this.history.place(at);
-    const end = this.ending();
+    if (cancelled) {
+      this.lastStop = { reason: 'cancelled', detail: `stopped after ${plural(ran, 'event')}` };
+      return this.lastStop;
+    }
+    const end = at >= this.history.frontier && this.history.atEnd ? this.ending() : null;
     if (end) {
       const onStall = active.find((b) => b.kind === 'stall');
       this.lastStop =
@@ -250,35 +331,52 @@ export class Session {
 
   /** Goes back to the last breakpoint hit before the cursor (or to the start). */
   reverseContinue(): SessionStop {
+    return this.startReverse().finish();
+  }
+
+  /** A reverse-continue in slices: it searches back chunk by chunk; Esc leaves the cursor where it was. */
+  startReverse(): LongOp<SessionStop> {
     const active = this.bps.filter((b) => b.enabled && b.kind !== 'stall');
-    const chunk = Math.max(256, this.history.keyframeInterval);
+    const chunk = Math.max(1024, this.history.keyframeInterval);
+    const start = this.cursorAt;
     // a hit "at n" means the event that led to world n hit; look for the last one with n < cursor
     let hiAt = this.cursorAt - 1;
-    while (hiAt > 0 && active.length > 0) {
-      const from = Math.max(0, hiAt - chunk);
-      const scan = breakpointScanner(this.engine.net, active, this.history.worldAt(from));
-      const found: { last?: Hit & { at: number } } = {};
-      this.engine.advance(this.history.worldAt(from), hiAt - from, {
-        after: (ev, d) => {
-          const h = scan(ev, d);
-          if (h) found.last = { at: ev.index + 1, ...h };
-          return false;
-        },
-      });
-      const last = found.last;
-      if (last) {
-        this.hitEvents.get(last.bp.id)?.add(last.at - 1);
-        this.cursorAt = last.at;
-        this.history.place(last.at);
-        this.lastStop = { reason: 'breakpoint', detail: `breakpoint ${last.bp.id}: ${last.what}`, breakpoint: last.bp.id };
-        return this.lastStop;
+    const progress = (): Progress => ({ label: 'searching back', done: start - 1 - hiAt, total: start, time: hiAt > 0 ? this.history.timeOf(hiAt - 1) : 0 });
+    // a generator cannot be an arrow function, so the steps reach the session through a name
+    // eslint-disable-next-line @typescript-eslint/no-this-alias
+    const self = this;
+    function* steps(): Generator<Progress, SessionStop> {
+      while (hiAt > 0 && active.length > 0) {
+        const from = Math.max(0, hiAt - chunk);
+        const w0 = self.history.worldAt(from);
+        const scan = breakpointScanner(self.engine.net, active, w0);
+        let last: (Hit & { at: number }) | undefined;
+        self.engine.advance(w0, hiAt - from, {
+          after: (ev, d) => {
+            const h = scan(ev, d);
+            if (h) last = { at: ev.index + 1, ...h };
+            return false;
+          },
+        }, { keep: 'none', detail: false });
+        if (last) {
+          self.hitEvents.get(last.bp.id)?.add(last.at - 1);
+          self.cursorAt = last.at;
+          self.history.place(last.at);
+          self.lastStop = { reason: 'breakpoint', detail: `breakpoint ${last.bp.id}: ${last.what}`, breakpoint: last.bp.id };
+          return self.lastStop;
+        }
+        hiAt = from;
+        yield progress();
       }
-      hiAt = from;
+      self.cursorAt = 0;
+      self.history.place(0);
+      self.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; nothing has happened yet' };
+      return self.lastStop;
     }
-    this.cursorAt = 0;
-    this.history.place(0);
-    this.lastStop = { reason: 'start', detail: 'no earlier breakpoint hit; nothing has happened yet' };
-    return this.lastStop;
+    return new LongOp(steps(), () => {
+      this.lastStop = { reason: 'cancelled', detail: `search stopped; no hit between event ${Math.max(0, hiAt - 1)} and the cursor` };
+      return this.lastStop;
+    }, progress());
   }
 
   // ------------------------------------------------------------------ watches
@@ -397,12 +495,39 @@ export class Session {
 
   // ------------------------------------------------------------------ replay
 
-  /** The replay file of everything computed so far. */
+  /** The replay file (`@2`) of everything computed so far. */
   exportReplay(stop?: Stop): string {
+    const parts: string[] = [];
+    this.writeReplay((c) => void parts.push(c), stop);
+    return parts.join('');
+  }
+
+  /** Writes the replay of everything computed so far to `sink`, piece by piece. */
+  writeReplay(sink: (chunk: string) => void, stop?: Stop): void {
     const { programSet, noise } = this.engine.net;
-    const s: Stop = stop ?? { reason: 'events', detail: `exported from the debugger at event ${this.cursorAt}` };
-    return serializeReplay(
-      buildReplay(programSet, noise, { seed: this.seed, breakpoints: this.bps.map((b) => b.spec), expectations: [] }, s, [...this.history.records]),
-    );
+    const h = this.history;
+    const n = h.frontier;
+    const end = h.atEnd ? quiescence(h.worldAt(n)) : null;
+    const s: Stop =
+      stop ??
+      (end === 'stall'
+        ? { reason: 'stall', detail: `exported from the debugger: the network stalled after ${plural(n, 'event')}` }
+        : end === 'idle'
+          ? { reason: 'idle', detail: `exported from the debugger: nothing left to do after ${plural(n, 'event')}` }
+          : { reason: 'events', detail: `exported from the debugger: the ${n === 1 ? 'one event' : `${n} events`} computed so far` });
+    const head = replayHead(programSet, noise, {
+      seed: this.seed,
+      breakpoints: this.bps.map((b) => b.spec),
+      expectations: [],
+      limits: { until_ns: null, events: s.reason === 'events' ? n : null },
+    });
+    const writer = new ReplayWriter(head, this.engine.net.nodeIds, sink);
+    const r = h.records;
+    for (let i = 0; i < n; i++) {
+      const [hi, lo] = r.digestHalves(i);
+      // only the last events keep their one-line text in the file
+      writer.add(r.time(i), r.node(i), r.kind(i), hi, lo, i >= n - RECENT ? h.summary(i) : '');
+    }
+    writer.finish(s, { events: n, digest: n ? r.digest(n - 1) : GENESIS_DIGEST });
   }
 }

@@ -36,17 +36,17 @@ export function wilsonInterval(k: number, n: number, z: number = Z95): Proportio
  * The nearest-rank percentile of an ascending list: the value at rank ⌈p·n/100⌉ (rank 1 for
  * p = 0). Always one of the values, never an interpolation. Undefined for an empty list.
  */
-export function nearestRank(sorted: readonly number[], p: number): number | undefined {
+export function nearestRank(sorted: ArrayLike<number>, p: number): number | undefined {
   if (sorted.length === 0) return undefined;
   const rank = Math.max(1, Math.ceil((p * sorted.length) / 100));
   return sorted[Math.min(rank, sorted.length) - 1];
 }
 
 /** The arithmetic mean, summed in the given order (so equal lists give equal bits); undefined when empty. */
-export function mean(values: readonly number[]): number | undefined {
+export function mean(values: ArrayLike<number>): number | undefined {
   if (values.length === 0) return undefined;
   let sum = 0;
-  for (const v of values) sum += v;
+  for (let i = 0; i < values.length; i++) sum += values[i];
   return sum / values.length;
 }
 

@@ -7,7 +7,7 @@ import { Engine, ProgramError } from '../engine/index.js';
 import { loadInputs } from '../model/index.js';
 import { BreakpointError, parseBreakpoint, type Breakpoint } from '../session/breakpoints.js';
 import { Recorder } from '../session/replay.js';
-import { parseExpectation, runHeadless, type Expectation } from '../session/run.js';
+import { DEFAULT_MAX_EVENTS, parseExpectation, runHeadless, type Expectation } from '../session/run.js';
 import type { RunSummary } from '../session/summary.js';
 import { diagnoseCrash, diagnoseExpectations, diagnoseRunError, diagnoseStall, type Diagnosis } from './signature.js';
 import type { SeedResult, SweepJob, SweepRun } from './types.js';
@@ -49,7 +49,12 @@ export function runSeed(p: PreparedJob, seed: number): SeedResult {
   const { engine, job } = p;
   let events = 0;
   let time = 0;
-  const meta = { seed, breakpoints: p.breakpoints.map((b) => b.spec), expectations: p.expectations.map((e) => e.spec) };
+  const meta = {
+    seed,
+    breakpoints: p.breakpoints.map((b) => b.spec),
+    expectations: p.expectations.map((e) => e.spec),
+    limits: { until_ns: job.untilNs ?? null, events: job.maxEvents ?? (job.untilNs === undefined ? DEFAULT_MAX_EVENTS : null) },
+  };
   try {
     const result = runHeadless(engine, {
       seed,

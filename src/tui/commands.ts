@@ -7,19 +7,13 @@
 import { plural } from '../model/words.js';
 import { closest } from '../expr/index.js';
 import { InputError } from '../model/errors.js';
-import { formatDuration, parseDuration } from '../model/units.js';
+import { parseDuration } from '../model/units.js';
+import type { LongOp } from '../session/long-op.js';
 import type { Session, SessionStop } from '../session/session.js';
+import { CommandError } from './command-error.js';
+import { chartCommand, diffCommand } from './compare-commands.js';
 
-/** A mistyped or impossible command, with a suggestion. */
-export class CommandError extends Error {
-  constructor(
-    message: string,
-    readonly fix?: string,
-  ) {
-    super(message);
-    this.name = 'CommandError';
-  }
-}
+export { CommandError } from './command-error.js';
 
 /** What a command may act on: the session and the debugger around it. */
 export interface CommandTarget {
@@ -29,9 +23,15 @@ export interface CommandTarget {
   selectSite(site: string): void;
   /** Writes the replay file; throws when the debugger was opened without a file system. */
   saveReplay(path: string): void;
+  /** Writes a text file (the chart); throws a CommandError when it cannot. */
+  writeText(path: string, text: string): void;
+  /** Reads a text file (a replay to compare with); throws a CommandError when it cannot. */
+  readText(path: string): string;
   setAutoplay(rate: number | null): void;
   /** Starts a continue that runs in slices and reports when it stops. */
   continueForward(): void;
+  /** Runs a long operation in slices (progress on the status line, Esc stops it); returns what to say now. */
+  runLong(op: LongOp<SessionStop>): string;
   openList(): void;
   openHelp(): void;
   quit(): void;
@@ -53,12 +53,24 @@ export interface CommandDef {
 function count(rest: string, word: string): number {
   if (rest === '') return 1;
   if (!/^[0-9]+$/.test(rest)) throw new CommandError(`${word} takes a number of events, got "${rest}"`, `write e.g. "${word} 10"`);
-  return Number(rest);
+  return eventNumber(rest, word);
 }
 
 function id(rest: string, word: string): number {
   if (!/^[0-9]+$/.test(rest)) throw new CommandError(`${word} needs the number of a breakpoint or watch`, 'the list command shows the numbers');
   return Number(rest);
+}
+
+/** The largest event number a jump may name: beyond it, counts are not exact in the engine's numbers. */
+export const MAX_EVENT = Number.MAX_SAFE_INTEGER - 1;
+
+/** A whole number of events from text, refused when it is beyond what the engine can count. */
+function eventNumber(text: string, word: string): number {
+  const v = Number(text);
+  if (!Number.isSafeInteger(v) || v > MAX_EVENT) {
+    throw new CommandError(`${word}: ${text} is more events than bellstep can count (at most ${MAX_EVENT})`, `write a smaller number, or use a time, e.g. "${word} 2.5 ms"`);
+  }
+  return v;
 }
 
 function go(t: CommandTarget, rest: string): string {
@@ -68,7 +80,7 @@ function go(t: CommandTarget, rest: string): string {
   if (rest === 'end') return t.moved(s.goto(s.total));
   const n = /^#?([0-9]+)$/.exec(rest);
   // "go N" puts the cursor on event #N: the world after events 0..N
-  if (n) return t.moved(s.goto(Number(n[1]) + 1));
+  if (n) return t.runLong(s.startGoto(eventNumber(n[1], 'go') + 1));
   let ns: number;
   try {
     ns = parseDuration(rest);
@@ -76,8 +88,8 @@ function go(t: CommandTarget, rest: string): string {
     if (e instanceof InputError) throw new CommandError(`go: "${rest}" is neither an event number nor a time`, 'write e.g. "go 12" or "go 2.5 ms"');
     throw e;
   }
-  const stop = s.gotoTime(ns);
-  return `${t.moved(stop)} (at or before ${formatDuration(ns)})`;
+  if (!Number.isSafeInteger(ns)) throw new CommandError(`go: ${rest} is longer than bellstep can count in nanoseconds`, 'write a shorter time');
+  return t.runLong(s.startGotoTime(ns));
 }
 
 /** Every command, in the order the help overlay lists them. */
@@ -85,21 +97,25 @@ export const COMMANDS: readonly CommandDef[] = [
   { word: 'go', args: 'N | TIME | start | end', does: 'jump to event #N or to the last event at or before a time (e.g. 2.5 ms)', complete: 'go', run: go },
   { word: 'step', args: '[N]', does: 'step N events forward (default 1)', complete: 'none', run: (t, r) => {
     const n = count(r, 'step');
-    let done = 0;
-    while (done < n && t.session.stepForward()) done++;
-    return t.moved();
+    if (n === 1) {
+      t.session.stepForward();
+      return t.moved();
+    }
+    return t.runLong(t.session.startGoto(Math.min(MAX_EVENT, t.session.cursor + n)));
   } },
   { word: 'back', args: '[N]', does: 'step N events back (default 1)', complete: 'none', run: (t, r) => {
     const n = count(r, 'back');
-    let done = 0;
-    while (done < n && t.session.stepBack()) done++;
-    return t.moved();
+    if (n === 1) {
+      t.session.stepBack();
+      return t.moved();
+    }
+    return t.runLong(t.session.startGoto(Math.max(0, t.session.cursor - n)));
   } },
   { word: 'continue', args: '', does: 'run forward to the next breakpoint hit, stall or end', complete: 'none', run: (t) => {
     t.continueForward();
     return 'running forward…';
   } },
-  { word: 'rewind', args: '', does: 'run back to the previous breakpoint hit, or the start', complete: 'none', run: (t) => t.moved(t.session.reverseContinue()) },
+  { word: 'rewind', args: '', does: 'run back to the previous breakpoint hit, or the start', complete: 'none', run: (t) => t.runLong(t.session.startReverse()) },
   { word: 'break', args: 'EXPR | on fire SITE.RULE | on send KIND | on deliver | on discard | on stall', does: 'add a breakpoint', complete: 'breakpoint', run: (t, r) => {
     if (!r) throw new CommandError('break needs a condition or an event form', 'write e.g. "break on fire mill.swap" or "break delivered() >= 2"');
     const bp = t.session.addBreakpoint(r);
@@ -149,6 +165,8 @@ export const COMMANDS: readonly CommandDef[] = [
     t.saveReplay(r);
     return `replay written to ${r}`;
   } },
+  { word: 'chart', args: 'FILE', does: 'write a space-time chart (SVG) of every event computed so far', complete: 'none', run: chartCommand },
+  { word: 'diff', args: 'FILE', does: 'compare the run with a replay file and go to the first event where they part', complete: 'none', run: diffCommand },
   { word: 'autoplay', args: 'RATE | off', does: 'step on its own at RATE events per second (Space pauses)', complete: 'none', run: (t, r) => {
     if (r === 'off') {
       t.setAutoplay(null);

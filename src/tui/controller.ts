@@ -7,11 +7,13 @@
 import type { Key } from 'ink';
 import { ProgramError } from '../engine/index.js';
 import { BreakpointError } from '../session/breakpoints.js';
+import type { LongOp } from '../session/long-op.js';
 import type { Session, SessionStop } from '../session/session.js';
+import { formatDuration } from '../model/units.js';
 import { CommandError, runCommand, type CommandTarget } from './commands.js';
 import { complete } from './complete.js';
 import { EventLog } from './event-log.js';
-import { keyAction, type KeyAction } from './keys.js';
+import { keyAction, splitKeys, type KeyAction } from './keys.js';
 import { PANES, type PaneId } from './layout.js';
 import type { Tone } from './lines.js';
 import { chainOrder } from './views/network.js';
@@ -22,8 +24,10 @@ export interface ControllerOptions {
   readonly colour?: boolean;
   /** Start in teaching mode, stepping this many events per second. */
   readonly autoplay?: number;
-  /** Writes a file (the `save` command); absent, `save` says it cannot. */
+  /** Writes a file (the `save` and `chart` commands); absent, they say they cannot. */
   readonly writeFile?: (path: string, text: string) => void;
+  /** Reads a file (the `diff` command); absent, it says it cannot. */
+  readonly readFile?: (path: string) => string;
   /** Runs long work after the "running…" frame is drawn (default setImmediate). */
   readonly defer?: (fn: () => void) => void;
   /** Whole events kept for the timeline. */
@@ -32,8 +36,8 @@ export interface ControllerOptions {
 
 export type Mode = 'normal' | 'command' | 'help' | 'list';
 
-/** Events one continue may run, in slices, before it pauses and says so. */
-export const CONTINUE_MAX = 1_000_000;
+/** Milliseconds of work per slice of a long operation: keys are read between slices. */
+const SLICE_MS = 12;
 
 export interface Note {
   readonly lines: readonly string[];
@@ -161,57 +165,83 @@ export class Controller implements CommandTarget {
     return s === 'stall' ? 'bad' : s === 'breakpoint' ? 'accent' : s === 'idle' || s === 'limit' ? 'warn' : 'plain';
   }
 
-  /** Starts a reverse-continue (or any one long call) after a "running…" frame, so the screen says what is going on. */
-  private runLong(label: string, fn: () => SessionStop): void {
-    if (this.busy) return;
-    this.busy = label;
-    this.changed();
-    this.defer(() => {
-      this.guarded(() => {
-        try {
-          this.move(fn);
-        } finally {
-          this.busy = undefined;
-        }
-      });
-    });
-  }
-
-  private cancelRun = false;
+  /** The long operation running in slices, if any (see session/long-op.ts). */
+  private op?: { run: LongOp<SessionStop>; started: number; lastDraw: number };
 
   /**
-   * Continues in slices of the session's continue limit, handing the event loop back
-   * between slices, so the count on screen moves and Esc or Ctrl+C stop the run.
+   * Runs a long operation (a far jump, a continue, a search back) in slices of a few
+   * milliseconds, handing the event loop back between them so keys and resizes are handled:
+   * the status line shows its progress, Esc stops it where it has got to, q quits.
    */
-  continueForward(): void {
-    if (this.busy) return;
-    const s = this.session;
-    const from = s.cursor;
-    this.cancelRun = false;
-    const slice = () => {
-      this.guarded(() => {
-        let stop: SessionStop;
-        try {
-          stop = s.continue();
-        } catch (e) {
-          this.busy = undefined;
-          throw e;
-        }
-        const ran = s.cursor - from;
-        if (stop.reason === 'limit' && !this.cancelRun && !this.ended && ran < CONTINUE_MAX) {
-          this.busy = `running forward… ${ran} events so far (Esc stops)`;
-          this.defer(slice);
-          return;
-        }
-        this.busy = undefined;
-        const why = this.cancelRun ? `stopped by Esc after ${ran} events` : stop.reason === 'limit' ? `ran ${ran} events without a breakpoint hit; Shift+→ goes on` : undefined;
-        this.move(() => stop);
-        if (why) this.say(`at event #${s.cursor - 1}: ${why}`, 'warn');
-      });
-    };
-    this.busy = 'running forward…';
+  runLong(run: LongOp<SessionStop>): string {
+    if (this.op) throw new CommandError('something is already running', 'wait for it, or press Esc to stop it');
+    this.op = { run, started: performance.now(), lastDraw: 0 };
+    this.busy = `${run.progress.label}…`;
     this.changed();
-    this.defer(slice);
+    this.defer(() => this.slice());
+    // what it did is said when it ends (or, while it runs, on the status line)
+    return '';
+  }
+
+  /** Events per second and the estimate left, from what a long operation has done so far. */
+  private progressText(): string {
+    const op = this.op!;
+    const p = op.run.progress;
+    const secs = (performance.now() - op.started) / 1000;
+    const rate = secs > 0.05 ? p.done / secs : 0;
+    const parts = [`${p.label}: ${p.done.toLocaleString('en')} events done`];
+    if (p.total !== null) parts[0] += `, ${Math.max(0, p.total - p.done).toLocaleString('en')} left`;
+    parts.push(`simulated ${formatDuration(p.time)}`);
+    if (rate > 0) parts.push(`${Math.round(rate).toLocaleString('en')} events/s`);
+    if (rate > 0 && p.total !== null) parts.push(`about ${((p.total - p.done) / rate).toFixed(1)} s left`);
+    return parts.join(' · ');
+  }
+
+  private slice(): void {
+    const op = this.op;
+    if (!op || this.ended) return;
+    let stop: SessionStop | undefined;
+    try {
+      stop = op.run.run(SLICE_MS);
+    } catch (e) {
+      this.op = undefined;
+      this.busy = undefined;
+      this.guarded(() => {
+        throw e;
+      });
+      return;
+    }
+    if (!stop) {
+      const now = performance.now();
+      // the status line is redrawn a few times a second, not after every slice
+      if (now - op.lastDraw > 100) {
+        op.lastDraw = now;
+        this.busy = this.progressText();
+        this.changed();
+      }
+      this.defer(() => this.slice());
+      return;
+    }
+    this.finishLong(stop);
+  }
+
+  private finishLong(stop: SessionStop): void {
+    this.op = undefined;
+    this.busy = undefined;
+    this.guarded(() => this.move(() => stop));
+  }
+
+  /** Stops the long operation where it has got to (Esc). */
+  cancelLong(): void {
+    const op = this.op;
+    if (!op) return;
+    this.guarded(() => this.finishLong(op.run.cancel()));
+  }
+
+  /** Continues in slices, so the count on screen moves and Esc stops the run. */
+  continueForward(): void {
+    if (this.op) return;
+    this.guarded(() => void this.runLong(this.session.startContinue()));
   }
 
   /** One autoplay tick: a step, pausing at the end of the run. */
@@ -255,7 +285,7 @@ export class Controller implements CommandTarget {
         return;
       }
       case 'events': {
-        const total = s.history.records.length;
+        const total = s.history.frontier;
         const from = this.eventSel ?? Math.max(0, s.cursor - 1);
         this.eventSel = Math.min(Math.max(0, total - 1), Math.max(0, from + delta));
         return;
@@ -286,12 +316,17 @@ export class Controller implements CommandTarget {
 
   // ------------------------------------------------------------------ keys
 
-  /** Handles one key press from Ink. */
+  /** Handles what Ink hands over: one key, or text that arrived in one piece (split into keys). */
   handleKey(input: string, key: Key): void {
+    for (const [i, k] of splitKeys(input, key)) this.handleOneKey(i, k);
+  }
+
+  private handleOneKey(input: string, key: Key): void {
     if (this.ended) return;
-    if (this.busy) {
-      if (input === 'c' && key.ctrl) this.quit();
-      if (key.escape) this.cancelRun = true;
+    if (this.op) {
+      // while something long runs: q or Ctrl+C quit at once, Esc stops it, anything else waits
+      if ((input === 'c' && key.ctrl) || (input === 'q' && !key.ctrl && this.mode !== 'command')) this.quit();
+      else if (key.escape) this.cancelLong();
       return;
     }
     if (this.mode === 'command') return this.commandKey(input, key);
@@ -319,7 +354,7 @@ export class Controller implements CommandTarget {
       case 'continue':
         return this.continueForward();
       case 'reverse':
-        return this.runLong('running back…', () => s.reverseContinue());
+        return this.guarded(() => void this.runLong(s.startReverse()));
       case 'first':
         return this.guarded(() => this.move(() => s.goto(0)));
       case 'last':
@@ -403,7 +438,7 @@ export class Controller implements CommandTarget {
       if (out.ok) {
         c.text = '';
         c.hint = undefined;
-        if (!this.ended && this.mode === 'normal') this.say(out.said, this.stopToneFor(line));
+        if (!this.ended && this.mode === 'normal' && out.said) this.say(out.said, this.stopToneFor(line));
       } else {
         // a mistake keeps the line open, with the error under it
         this.mode = 'command';
@@ -422,7 +457,25 @@ export class Controller implements CommandTarget {
     try {
       this.opts.writeFile(path, this.session.exportReplay());
     } catch (e) {
+      throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'give a path to a regular file in a folder you can write');
+    }
+  }
+
+  writeText(path: string, text: string): void {
+    if (!this.opts.writeFile) throw new CommandError('this debugger cannot write files', 'open it with bellstep debug to write files');
+    try {
+      this.opts.writeFile(path, text);
+    } catch (e) {
       throw new CommandError(`could not write ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the folder exists and is writable');
+    }
+  }
+
+  readText(path: string): string {
+    if (!this.opts.readFile) throw new CommandError('this debugger cannot read files', 'open it with bellstep debug to compare with a replay file');
+    try {
+      return this.opts.readFile(path);
+    } catch (e) {
+      throw new CommandError(`could not read ${path}: ${e instanceof Error ? e.message : String(e)}`, 'check the path of the replay file');
     }
   }
 

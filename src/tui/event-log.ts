@@ -1,35 +1,34 @@
 /**
- * The full events of the recent past, for the timeline. The session keeps one line per
- * event; this keeps the last `capacity` whole events (sends, fires, deliveries) as the
- * session computes them, by listening to its history. Older events fall back to their
- * one-line record, so the timeline shows them without arrows.
+ * The whole events (sends, fires, deliveries) around the cursor, for the timeline. The
+ * session keeps only compact records; the events a frame needs are recomputed, a stretch at
+ * a time, from the nearest keyframe before them, so the timeline always shows the moment the
+ * other panes show, however the cursor got there.
  */
 import type { EngineEvent } from '../engine/index.js';
 import type { Session } from '../session/session.js';
 
 export class EventLog {
-  private readonly ring: (EngineEvent | undefined)[];
+  private from = 0;
+  private events: EngineEvent[] = [];
 
   constructor(
     readonly session: Session,
-    readonly capacity = 8192,
-  ) {
-    this.ring = new Array(capacity);
-    const h = session.history;
-    const before = h.onNewEvent;
-    h.onNewEvent = (ev, w) => {
-      before?.(ev, w);
-      this.ring[ev.index % this.capacity] = ev;
-    };
-  }
+    /** Events recomputed at a time, ending at the one asked for or the cursor. */
+    readonly capacity = 2048,
+  ) {}
 
-  /** The whole event with this index, when it is still held. */
+  /** The whole event with this index, when it has been computed. */
   get(index: number): EngineEvent | undefined {
-    if (index < 0) return undefined;
-    const ev = this.ring[index % this.capacity];
-    if (ev && ev.index === index) return ev;
-    // the event at the cursor is always known, even after a jump far back
+    if (index < 0 || index >= this.session.total) return undefined;
+    const i = index - this.from;
+    if (i >= 0 && i < this.events.length) return this.events[i];
+    // the event at the cursor is always known
     const at = this.session.event();
-    return at && at.index === index ? at : undefined;
+    if (at && at.index === index) return at;
+    const to = Math.min(this.session.total, Math.max(index + 1, this.session.cursor));
+    const from = Math.max(0, Math.min(index, to - this.capacity));
+    this.events = this.session.history.detailedEvents(from, to);
+    this.from = from;
+    return this.events[index - from];
   }
 }

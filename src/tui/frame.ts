@@ -9,7 +9,7 @@ import { narrate } from '../session/narrate.js';
 import type { Controller } from './controller.js';
 import { KEY_HINTS } from './keys.js';
 import { layout, type PaneId } from './layout.js';
-import { fitLine, type Line } from './lines.js';
+import { fitLine, type Line, type RecordList } from './lines.js';
 import { pad, wrap } from './text.js';
 import { eventsView } from './views/events.js';
 import { helpLines, listLines } from './views/help.js';
@@ -76,6 +76,12 @@ function windowAt(offset: number, anchor: number | undefined, h: number, len: nu
 
 const cache = new WeakMap<Controller, Map<PaneId, { key: string; model: PaneModel }>>();
 
+/** The session's event records as the panes read them: one at a time, summaries recomputed when no longer kept. */
+function recordList(s: Controller['session']): RecordList {
+  const h = s.history;
+  return { length: h.frontier, at: (i) => (i >= 0 && i < h.frontier ? h.record(i) : undefined) };
+}
+
 function paneModel(c: Controller, id: PaneId, width: number, height: number): PaneModel {
   const s = c.session;
   const net = s.engine.net;
@@ -96,10 +102,10 @@ function paneModel(c: Controller, id: PaneId, width: number, height: number): Pa
   let note: string | undefined;
   if (id === 'events') {
     const sel = c.eventSel ?? Math.max(0, s.cursor - 1);
-    body = eventsView({ records: s.history.records, cursor: s.cursor, selected: sel, focused, narration: c.autoplay ? undefined : narrate(s.event()) }, width, rows);
+    body = eventsView({ records: recordList(s), cursor: s.cursor, selected: sel, focused, narration: c.autoplay ? undefined : narrate(s.event()) }, width, rows);
     note = `${s.total} computed`;
   } else if (id === 'timeline') {
-    body = timelineView({ net, world: w, records: s.history.records, log: c.log, cursor: s.cursor, site: c.site, back: c.scroll.timeline }, width, rows);
+    body = timelineView({ net, world: w, records: recordList(s), log: c.log, cursor: s.cursor, site: c.site, back: c.scroll.timeline }, width, rows);
     note = c.scroll.timeline ? `${plural(c.scroll.timeline, 'event')} back` : 'time ↓';
   } else {
     let v: PaneView;
@@ -126,7 +132,7 @@ function bottomRows(c: Controller, cols: number): Line[] {
     lines.push([{ text: '› ', tone: 'accent' }, { text: c.command.text, tone: 'strong' }, { text: '█', tone: 'plain' }]);
     return lines;
   }
-  if (c.busy) return [[{ text: `${c.busy} · Esc stops · Ctrl+C quits`, tone: 'warn' }]];
+  if (c.busy) return [[{ text: 'Esc stops it here · q quits', tone: 'warn' }]];
   if (c.note) return c.note.lines.slice(0, 2).map((l): Line => [{ text: l, tone: c.note!.tone }]);
   return [[{ text: KEY_HINTS, tone: 'dim' }]];
 }

@@ -109,3 +109,25 @@ export function keyAction(input: string, key: Key): KeyAction | undefined {
 
 /** The short key hints shown at the bottom when nothing else is there. */
 export const KEY_HINTS = '→ step  ← back  Shift+→ continue  Tab pane  : command  ? help  q quit';
+
+/** A key press with no key flags set: the base of the keys `splitKeys` makes. */
+const PLAIN: Key = {
+  upArrow: false, downArrow: false, leftArrow: false, rightArrow: false, pageDown: false, pageUp: false,
+  home: false, end: false, return: false, escape: false, ctrl: false, shift: false, tab: false,
+  backspace: false, delete: false, meta: false, super: false, hyper: false, capsLock: false, numLock: false,
+} as Key;
+
+/**
+ * Splits what arrives in one piece (text pasted, or sent by a terminal multiplexer, such as
+ * `:go 300000` and Enter) into the keys a person would have typed one by one, so it works
+ * exactly as typed. A named key (an arrow, Esc, a Ctrl chord) passes through as it is.
+ */
+export function splitKeys(input: string, key: Key): [string, Key][] {
+  const chars = [...input];
+  const named = key.upArrow || key.downArrow || key.leftArrow || key.rightArrow || key.pageUp || key.pageDown || key.home || key.end || key.escape || key.ctrl || key.meta;
+  if (chars.length <= 1 || named) return [[input, key]];
+  return chars.map((c): [string, Key] => [
+    c === '\r' || c === '\n' || c === '\t' || c === '\b' || c === '\u007f' ? '' : c,
+    { ...PLAIN, return: c === '\r' || c === '\n', tab: c === '\t', backspace: c === '\b', delete: c === '\u007f', shift: c !== c.toLowerCase() },
+  ]);
+}

@@ -3,6 +3,7 @@
  * text means (good, warning, selected...); style.ts turns them into colours or, without
  * colour, into nothing, so meaning never rests on colour alone.
  */
+import type { ReplayEvent } from '../session/replay.js';
 import { fit, width } from './text.js';
 
 /** What a piece of text means, for styling. */
@@ -45,4 +46,10 @@ export function fitLine(l: Line, w: number): Line {
     }
   }
   return out;
+}
+
+/** Event records as panes read them: a list, or the session's history (one record at a time). */
+export interface RecordList {
+  readonly length: number;
+  at(i: number): ReplayEvent | undefined;
 }

@@ -15,7 +15,7 @@ export interface TerminalStreams {
 
 const ALT_ON = '\x1b[?1049h\x1b[H\x1b[2J';
 const ALT_OFF = '\x1b[?25h\x1b[?1049l';
-const SIGNALS = { SIGTERM: 15, SIGHUP: 1 } as const;
+const SIGNALS = { SIGTERM: 15, SIGHUP: 1, SIGINT: 2 } as const;
 
 /** Shows the debugger until the user quits; rejects with the error of a crash (after restoring the terminal). */
 export async function startDebugger(controller: Controller, io: TerminalStreams): Promise<void> {

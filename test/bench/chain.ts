@@ -60,6 +60,59 @@ export function nestedChain(levels: number, km = 5): string {
   return lines.join('\n') + '\n';
 }
 
+/**
+ * The same chain written with roles: one `relabel` role for every site, an `end` role for
+ * the two ends and a `repeater` role for the rest. It expands to exactly the rules of
+ * `nestedChain`, in a file a few lines per site long, which is how a large network is written.
+ */
+export function nestedChainWithRoles(levels: number, km = 5): string {
+  const n = 2 ** levels + 1;
+  const last = n - 1;
+  const lines: string[] = ['format: bellstep/program-set@1', `title: nested-swapping chain of ${n} sites`, 'nodes:'];
+  for (let i = 0; i < n; i++) lines.push(`  - {id: ${name(i)}, qubits: ${i === 0 || i === last ? 1 : 2}}`);
+  lines.push('links:');
+  for (let i = 0; i < last; i++) lines.push(`  - {ends: [${name(i)}, ${name(i + 1)}], length: ${km} km, slots: 1}`);
+  lines.push(
+    'roles:',
+    '  relabel:',
+    '    rules:',
+    '      - name: take',
+    '        when:',
+    '          - got: {kind: swapped, as: m}',
+    '          - have: {id: m.pair, as: p}',
+    '        do:',
+    '          - correct: {pair: p, x: "m.fix == 1 && m.x == 1", z: "m.fix == 1 && m.z == 1"}',
+    '          - rebind: {pair: p, partner: m.peer, id: m.joined}',
+    '  end:',
+    '    params: [far]',
+    '    rules:',
+    '      - name: hand-over',
+    '        when: [{have: {partner: far, as: p}}]',
+    '        do: [{deliver: p}]',
+    '  repeater:',
+    '    params: [left, right]',
+    '    rules:',
+    '      - name: swap',
+    '        when:',
+    '          - have: {partner: left, as: a}',
+    '          - have: {partner: right, as: b}',
+    '        do:',
+    '          - bell_measure: {on: [a, b], as: [zb, xb]}',
+    '          - send: {to: right, kind: swapped, pair: b.id, data: {fix: 1, z: zb, x: xb, peer: left, joined: "join(a.id, b.id)"}}',
+    '          - send: {to: left, kind: swapped, pair: a.id, data: {fix: 0, z: zb, x: xb, peer: right, joined: "join(a.id, b.id)"}}',
+    'programs:',
+  );
+  for (let i = 0; i < n; i++) {
+    if (i === 0 || i === last) {
+      lines.push(`  ${name(i)}: {use: [relabel, {role: end, args: {far: ${i === 0 ? name(last) : name(0)}}}]}`);
+      continue;
+    }
+    const span = 2 ** trailingZeros(i);
+    lines.push(`  ${name(i)}: {use: [relabel, {role: repeater, args: {left: ${name(i - span)}, right: ${name(i + span)}}}]}`);
+  }
+  return lines.join('\n') + '\n';
+}
+
 /** Noise for benchmark chains: noisy links and memories, so the density matrices do real work. */
 export const CHAIN_NOISE = `format: bellstep/noise@1
 seed: 5

@@ -141,6 +141,6 @@ describe('outputs', () => {
     writeFileSync(join(dir, 'w.net.yaml'), SWAP_NET);
     const r = await realCli(['run', join(dir, 'w.net.yaml'), '--events', '5', '--record', join(dir, 'made', 'deeper', 'r.json')]);
     expect(r.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, 'made', 'deeper', 'r.json'), 'utf8')).format).toBe('bellstep/replay@1');
+    expect(JSON.parse(readFileSync(join(dir, 'made', 'deeper', 'r.json'), 'utf8')).format).toMatch(/^bellstep\/replay@/);
   });
 });

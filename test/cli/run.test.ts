@@ -9,10 +9,11 @@ const files = {
   'pur.noise.yaml': noiseWith('{werner: 0.9}', '', 8),
 };
 
-const SUMMARY_KEYS = ['format', 'seed', 'events', 'time_ns', 'stop', 'delivered', 'fired', 'messages', 'generated', 'expectations', 'stall'];
+/** §6's keys in their order, then the run statistics of §9. */
+const SUMMARY_KEYS = ['format', 'seed', 'events', 'time_ns', 'stop', 'delivered', 'fired', 'messages', 'generated', 'expectations', 'stall', 'stats'];
 
 describe('bellstep run', () => {
-  it('prints a summary with exactly the keys of FORMAT.md §6', async () => {
+  it('prints a summary with exactly the keys of FORMAT.md §6, then stats', async () => {
     const r = await runCli(['run', 'pur.net.yaml', '--noise', 'pur.noise.yaml', '--events', '500', '--json'], files);
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
@@ -74,7 +75,7 @@ describe('bellstep run', () => {
     const r = await runCli(['run', 'swap.net.yaml', '--events', '200', '--record', 'out.replay.json', '--json'], files);
     expect(() => JSON.parse(r.stdout)).not.toThrow();
     expect(r.stderr).toContain('replay written to out.replay.json');
-    expect(r.files.get('out.replay.json')).toContain('"format": "bellstep/replay@1"');
+    expect(r.files.get('out.replay.json')).toContain('"format": "bellstep/replay@2"');
   });
 
   it('gives the same summary with or without --record', async () => {

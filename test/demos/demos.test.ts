@@ -3,6 +3,8 @@
  * and `run` delivers (or stalls) with the figures the published formulas predict.
  */
 import { describe, expect, it } from 'vitest';
+import { parseReplay } from '../../src/session/replay.js';
+import { engineFromReplay } from '../../src/session/verify.js';
 import { bbpssw, dejmps, swapBell, swapWerner, werner } from './bell-formulas.js';
 import { cliOn, idealNoise, loadDemo, meanFidelity, noiseNumber, runJson, withoutRules, withPick } from './demo-files.js';
 
@@ -16,6 +18,16 @@ describe.each(['three-site-swap', 'two-site-purification', 'stalled-purification
     expect(r.code).toBe(0);
   });
 });
+
+/** Every event of a replay with its one-line text, rebuilt by re-running its embedded inputs (as the file keeps only the last ones' text). */
+function replayLines(text: string): { time_ns: number; summary: string }[] {
+  const r = parseReplay(text);
+  const engine = engineFromReplay(r);
+  const out: { time_ns: number; summary: string }[] = [];
+  engine.advance(engine.initial(r.seed), r.events.length, { after: (ev) => (out.push({ time_ns: ev.time, summary: ev.summary }), false) }, { keep: 'none', detail: false });
+  expect(out.length).toBe(r.events.length);
+  return out;
+}
 
 describe('three-site-swap', () => {
   const demo = loadDemo('three-site-swap');
@@ -131,7 +143,7 @@ describe('lost-message', () => {
   it('gives up when the kept half is 3 ms old, and delivers again afterwards', async () => {
     const r = await cliOn(demo, 'run', [...RUN, '--break', 'on fire tarn.abandon', '--record', 'r.json']);
     expect(r.stdout).toMatch(/^stopped: breakpoint/);
-    const events = (JSON.parse(r.files.get('r.json')!) as { events: { time_ns: number; summary: string }[] }).events;
+    const events = replayLines(r.files.get('r.json')!);
     const giveUp = events.find((e) => e.summary.includes('fired vale.give-up'))!;
     // the abandon message names the pair; its herald is when the kept half arrived at vale
     const about = /about (#\d+)/.exec(events[events.length - 1].summary)![1];

@@ -72,7 +72,7 @@ const MUTATIONS: readonly ((lines: string[], rnd: () => number) => string)[] = [
   },
   function swapValue(lines, rnd) {
     // a value from anywhere in the file put under another key: a pair where a node belongs, text as an angle...
-    const VALUE = /(\b[a-z_]+): ("[^"]*"|[^,{}\[\]\s][^,{}\]]*)/g;
+    const VALUE = /(\b[a-z_]+): ("[^"]*"|[^,{}[\]\s][^,{}\]]*)/g;
     const all = lines.flatMap((l) => [...l.matchAll(VALUE)].map((m) => m[2]));
     const i = Math.floor(rnd() * lines.length);
     const hits = [...lines[i].matchAll(VALUE)];

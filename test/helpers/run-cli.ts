@@ -4,7 +4,7 @@
  */
 import { main } from '../../src/cli/main.js';
 import { dirname, resolve } from 'node:path';
-import type { CliIo, PathInfo, PathKind } from '../../src/cli/io.js';
+import { coarseKind, type CliIo, type PathInfo, type PathKind } from '../../src/cli/io.js';
 
 export interface MemoryIoOptions {
   readonly stdoutIsTTY?: boolean;
@@ -77,7 +77,12 @@ export function memoryIo(files: Record<string, string> = {}, opts: MemoryIoOptio
       if (readOnly.has(resolve(p)) || readOnly.has(resolve(dirname(p)))) throw Object.assign(new Error(`EACCES: permission denied, open '${p}'`), { code: 'EACCES' });
       store.set(p, t);
     },
+    openWrite: (p) => {
+      store.set(p, '');
+      return { write: (t) => void store.set(p, (store.get(p) ?? '') + t), close: () => undefined };
+    },
     stat,
+    pathKind: (p) => coarseKind(stat(p)),
     stdoutIsTTY: opts.stdoutIsTTY ?? false,
     stdinIsTTY: opts.stdinIsTTY ?? false,
     stderrIsTTY: opts.stderrIsTTY ?? false,

@@ -8,7 +8,8 @@ import { resolve } from 'node:path';
 import { validateXML } from 'xmllint-wasm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { junitTimestamp, junitXml, xmlAttr, xmlText } from '../../src/report/junit.js';
-import { replayChecksum, sha256, type ReplayFile } from '../../src/session/replay.js';
+import { sha256 } from '../../src/session/replay.js';
+import { resignV2 } from '../../src/session/replay-v2.js';
 import { runCli, type CliResult } from '../helpers/run-cli.js';
 import { LOOPING_NET, LOSSY_NET, LOSSY_NOISE } from '../sweep/scenarios.js';
 
@@ -74,11 +75,10 @@ describe('JUnit reports', () => {
     expect(await schemaErrors(ok.files.get('ok.xml')!)).toEqual([]);
     expect(cases(ok.files.get('ok.xml')!).map((c) => c.name)).toEqual([expect.stringMatching(/^verify: (\d+) of \1 events match the recording$/), 'delivered() &gt;= 0']);
     // the same replay run on another noise model diverges
-    const r = JSON.parse(replayText) as ReplayFile;
+    const inputs = JSON.parse(replayText).inputs;
     const other = LOSSY_NOISE.replace('loss: 0.02', 'loss: 0.5');
-    r.inputs.noise = { ...r.inputs.noise!, text: other, sha256: sha256(other) };
-    r.checksum = replayChecksum(r);
-    const bad = await runCli(['replay', 'r.json', '--verify', '--junit', 'bad.xml'], { 'r.json': JSON.stringify(r) });
+    const forged = resignV2(replayText.replace(/\n {2}"inputs": .*?(,?)(?=\n)/, (_m, comma: string) => `\n  "inputs": ${JSON.stringify({ ...inputs, noise: { ...inputs.noise, text: other, sha256: sha256(other) } })}${comma}`));
+    const bad = await runCli(['replay', 'r.json', '--verify', '--junit', 'bad.xml'], { 'r.json': forged });
     expect(bad.code).toBe(1);
     const xml = bad.files.get('bad.xml')!;
     expect(await schemaErrors(xml)).toEqual([]);

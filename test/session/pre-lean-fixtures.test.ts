@@ -12,7 +12,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { Engine } from '../../src/engine/index.js';
 import { loadInputs } from '../../src/model/index.js';
-import { Recorder, parseReplay } from '../../src/session/replay.js';
+import { Recorder, parseReplay, replayChecksum, serializeReplay, type ReplayFileV1 } from '../../src/session/replay.js';
 import { runHeadless } from '../../src/session/run.js';
 import { verifyReplay } from '../../src/session/verify.js';
 import { SCENARIOS, type FixtureScenario } from '../fixtures/pre-lean/scenarios.js';
@@ -42,6 +42,35 @@ describe('replays recorded before the lean core', () => {
   }
 });
 
+describe('tampered @1 files, re-signed', () => {
+  const file = join(dir, 'three-site-swap.replay.json');
+  const original = JSON.parse(readFileSync(file, 'utf8')) as ReplayFileV1;
+  const forge = (edit: (r: ReplayFileV1) => void): ReplayFileV1 => {
+    const r = structuredClone(original);
+    edit(r);
+    r.checksum = replayChecksum(r);
+    return r;
+  };
+  for (const [what, edit] of [
+    ['emptied', (r: ReplayFileV1) => (r.events = [])],
+    ['halved', (r: ReplayFileV1) => (r.events = r.events.slice(0, r.events.length / 2))],
+    ['cut by one event', (r: ReplayFileV1) => void r.events.pop()],
+  ] as const) {
+    it(`never verifies when ${what}: the run does not stop where the file says`, () => {
+      const v = verifyReplay(parseReplay(serializeReplay(forge(edit))));
+      expect(v.ok).toBe(false);
+      expect(v.divergence?.field).toBe('stop');
+      expect(v.divergence?.message).toMatch(/stops at its event limit of 300, but holds \d+ events/);
+    });
+  }
+
+  it('never verifies with one event removed from the middle', () => {
+    const v = verifyReplay(parseReplay(serializeReplay(forge((r) => void r.events.splice(100, 1)))));
+    expect(v.ok).toBe(false);
+    expect(v.divergence?.index).toBe(100);
+  });
+});
+
 describe('digests and summaries recorded before the lean core', () => {
   for (const s of SCENARIOS) {
     it(`${s.name}: the same last digest and summary bytes for ${s.seeds.length} seeds`, () => {
@@ -52,7 +81,7 @@ describe('digests and summaries recorded before the lean core', () => {
         return {
           seed,
           events: r.summary.events,
-          last: rec.events[rec.events.length - 1]?.digest ?? '',
+          last: rec.count ? rec.lastDigest : '',
           summary: createHash('sha256').update(JSON.stringify(r.summary)).digest('hex'),
         };
       });

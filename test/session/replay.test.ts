@@ -1,11 +1,12 @@
-/** Replay files (FORMAT.md §7): export, import, verify, and refusal of foreign or tampered files. */
+/** Replay files: export, import, verify to the recorded stop, and refusal of foreign, misshapen or tampered files. */
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
 import { onCrashSaveReplay, crashReplayPath } from '../../src/cli/crash.js';
 import type { CommandSpec } from '../../src/cli/spec.js';
 import { Session } from '../../src/session/session.js';
 import { createHash } from 'node:crypto';
-import { parseReplay, replayChecksum, sha256, type ReplayFile } from '../../src/session/replay.js';
+import { parseReplay, sha256 } from '../../src/session/replay.js';
+import { ReplayWriter, resignV2 } from '../../src/session/replay-v2.js';
 import { verifyReplay } from '../../src/session/verify.js';
 import { memoryIo, runCli } from '../helpers/run-cli.js';
 import { engineFrom, SWAP_NET, purificationNet } from '../engine/scenarios.js';
@@ -25,12 +26,33 @@ async function recorded(extra: string[] = []): Promise<string> {
   return r.files.get('r.replay.json')!;
 }
 
-/** Edits a replay object and re-signs it, as a careful forger (or a changed tool) would. */
-function resign(text: string, edit: (r: ReplayFile) => void): string {
-  const r = JSON.parse(text) as ReplayFile;
-  edit(r);
-  r.checksum = replayChecksum(r);
-  return JSON.stringify(r);
+/** Replaces one top-level line of a `@2` file (`"key": value`) and re-signs it, as a careful forger would. */
+function withLine(text: string, key: string, value: unknown): string {
+  const re = new RegExp(`\\n {2}"${key}": .*?(,?)(?=\\n)`);
+  if (!re.test(text)) throw new Error(`no line "${key}"`);
+  return resignV2(text.replace(re, (_m, comma: string) => `\n  "${key}": ${JSON.stringify(value)}${comma}`));
+}
+
+/**
+ * A `@2` file rewritten with only some of its events, consistently: blocks, the last events
+ * in full, the final count and digest all agree with each other, and it is re-signed. Only
+ * the stop and the limits are left as they were.
+ */
+function keepEvents(text: string, keep: (i: number) => boolean): string {
+  const raw = JSON.parse(text);
+  const r = parseReplay(text);
+  const parts: string[] = [];
+  const head = { tool: raw.tool, inputs: raw.inputs, seed: raw.seed, breakpoints: raw.breakpoints, expectations: raw.expectations, limits: raw.limits };
+  const w = new ReplayWriter(head, raw.tables.nodes, (c) => void parts.push(c));
+  let last = '0000000000000000';
+  for (let i = 0; i < r.events.length; i++) {
+    if (!keep(i)) continue;
+    const d = r.events.digest(i);
+    w.add(r.events.time(i), r.events.node(i), r.events.kind(i), parseInt(d.slice(0, 8), 16), parseInt(d.slice(8), 16), r.events.summary(i));
+    last = d;
+  }
+  w.finish(raw.stop, { events: w.events, digest: last });
+  return parts.join('');
 }
 
 async function verify(text: string, extra: string[] = []) {
@@ -38,29 +60,34 @@ async function verify(text: string, extra: string[] = []) {
 }
 
 describe('replay files', () => {
-  it('have exactly the fixed top-level keys and a checksum that matches', async () => {
+  it('are bellstep/replay@2: the fixed keys, events in blocks, and a checksum over every byte before it', async () => {
     const text = await recorded(['--expect', 'delivered() >= 1', '--break', 'delivered() >= 1000']);
     const r = JSON.parse(text);
-    expect(Object.keys(r)).toEqual(['format', 'tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'stop', 'events', 'checksum']);
-    expect(r.format).toBe('bellstep/replay@1');
+    expect(Object.keys(r)).toEqual(['format', 'tool', 'inputs', 'seed', 'breakpoints', 'expectations', 'limits', 'tables', 'blocks', 'recent', 'stop', 'final', 'checksum']);
+    expect(r.format).toBe('bellstep/replay@2');
     expect(r.inputs.program_set.sha256).toBe(sha256(SWAP_NET));
     expect(r.inputs.noise.text).toBe(NOISE);
-    expect(r.events).toHaveLength(400);
-    expect(Object.keys(r.events[0])).toEqual(['index', 'time_ns', 'node', 'kind', 'summary', 'digest']);
-    // the checksum covers everything else, as JSON with sorted keys (computed here independently)
-    const { checksum, ...rest } = r;
-    const sorted = (v: unknown): unknown =>
-      Array.isArray(v) ? v.map(sorted) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, sorted((v as Record<string, unknown>)[k])])) : v;
-    expect(checksum).toBe(`sha256:${createHash('sha256').update(JSON.stringify(sorted(rest))).digest('hex')}`);
+    expect(r.limits).toEqual({ until_ns: null, events: 400 });
+    expect(r.final.events).toBe(400);
+    expect(r.recent.at(-1).index).toBe(399);
+    expect(Object.keys(r.recent[0])).toEqual(['index', 'time_ns', 'node', 'kind', 'summary', 'digest']);
+    // the checksum is the SHA-256 of the file up to its own line (computed here independently)
+    const at = text.lastIndexOf('\n  "checksum": ');
+    expect(r.checksum).toBe(`sha256:${createHash('sha256').update(text.slice(0, at)).digest('hex')}`);
     expect(r.expectations).toEqual(['delivered() >= 1']);
     expect(r.breakpoints).toEqual(['delivered() >= 1000']);
+    // every event reads back with its digest, and the last ones with their text
+    const p = parseReplay(text);
+    expect(p.events).toHaveLength(400);
+    expect(p.events.at(399).summary).toBe(r.recent.at(-1).summary);
+    expect(p.events.at(399).digest).toBe(r.final.digest);
   });
 
   it('verify passes on an untouched recording, with a JUnit report', async () => {
     const text = await recorded(['--expect', 'delivered() >= 1']);
     const r = await verify(text, ['--junit', 'out.xml']);
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain('verified: all 400 events match the recording');
+    expect(r.stdout).toContain('verified: all 400 events match the recording, and the run stops there (events)');
     const xml = r.files.get('out.xml')!;
     expect(xml).toContain('<testsuite name="bellstep replay x.replay.json" tests="2" failures="0" errors="0"');
     expect(xml).toContain('name="delivered() &gt;= 1"');
@@ -73,10 +100,8 @@ describe('replay files', () => {
       '  quay:\n    rules:\n',
       '  quay:\n    rules:\n      - name: early\n        when: [{have: {partner: mill, as: p}}]\n        do: [{stage: {pair: p, to: held}}]\n',
     );
-    const forged = resign(text, (r) => {
-      r.inputs.program_set.text = changed;
-      r.inputs.program_set.sha256 = sha256(changed);
-    });
+    const inputs = JSON.parse(text).inputs;
+    const forged = withLine(text, 'inputs', { ...inputs, program_set: { ...inputs.program_set, text: changed, sha256: sha256(changed) } });
     const res = await verify(forged, ['--json', '--junit', 'out.xml']);
     expect(res.code).toBe(1);
     const out = JSON.parse(res.stdout);
@@ -86,43 +111,56 @@ describe('replay files', () => {
     expect(res.files.get('out.xml')).toContain('<failure message="event ');
   });
 
-  it('verify catches a tampered event even when the checksum was redone', async () => {
+  it('verify catches a tampered event even when the file was rewritten and re-signed', async () => {
     const text = await recorded();
-    const forged = resign(text, (r) => {
-      r.events[123].summary = r.events[123].summary.replace('made', 'made up');
-      r.events[123].digest = 'ffffffffffffffff';
-    });
-    const res = await verify(forged);
+    // event 123 dropped: every later event moves up one place
+    const res = await verify(keepEvents(text, (i) => i !== 123));
     expect(res.code).toBe(1);
     expect(res.stdout).toContain('DIVERGED after 123 matching events');
     expect(res.stdout).toContain('event 123');
   });
 
+  it('refuses a recording emptied, halved or cut by one event, and re-signed (exit 1, saying what differs)', async () => {
+    const text = await recorded();
+    const cases: [string, (i: number) => boolean][] = [
+      ['emptied', () => false],
+      ['halved', (i) => i < 200],
+      ['cut by one', (i) => i < 399],
+    ];
+    for (const [what, keep] of cases) {
+      const res = await verify(keepEvents(text, keep));
+      expect(res.code, what).toBe(1);
+      expect(res.stdout, what).toContain('the run does not end where the recording says');
+      expect(res.stdout, what).toMatch(/stops at its event limit of 400, but holds \d+ events/);
+    }
+  });
+
   it('refuses a tampered file whose checksum no longer matches, before running anything', async () => {
     const text = await recorded();
-    const r = JSON.parse(text);
-    r.events[5].time_ns += 1;
-    const res = await verify(JSON.stringify(r));
+    const res = await verify(text.replace('"seed": 31', '"seed": 32'));
     expect(res.code).toBe(2);
     expect(res.stderr).toContain('checksum mismatch');
   });
 
   it('refuses an embedded input that does not match its SHA-256', async () => {
-    const forged = resign(await recorded(), (r) => {
-      r.inputs.program_set.text += '\n# edited\n';
-    });
+    const text = await recorded();
+    const inputs = JSON.parse(text).inputs;
+    const forged = withLine(text, 'inputs', { ...inputs, program_set: { ...inputs.program_set, text: `${inputs.program_set.text}\n# edited\n` } });
     const res = await verify(forged);
     expect(res.code).toBe(2);
     expect(res.stderr).toContain('does not match its SHA-256');
   });
 
-  it('refuses a truncated file, a foreign file and a newer format, with exit 2', async () => {
+  it('refuses a truncated file, a foreign file, a misshapen one and a newer format, with exit 2', async () => {
     const text = await recorded();
     const cases: [string, string][] = [
       [text.slice(0, Math.floor(text.length / 2)), 'truncated'],
       ['{"hello": "world"}', 'not a bellstep replay file'],
       ['[1, 2, 3]', 'not a replay file'],
-      [resign(text, (r) => (r.format = 'bellstep/replay@2')), 'written by a newer bellstep (format bellstep/replay@2)'],
+      [withLine(text, 'format', 'bellstep/replay@3'), 'written by a newer bellstep (format bellstep/replay@3)'],
+      [withLine(text, 'seed', '7'), 'seed must be a whole number'],
+      [withLine(text, 'tool', null), 'tool must be an object'],
+      [withLine(text, 'limits', { until_ns: 'soon', events: null }), 'limits.until_ns must be a whole number'],
       ['', 'not valid JSON'],
     ];
     for (const [t, fragment] of cases) {
@@ -156,7 +194,7 @@ describe('replay files', () => {
         const s = new Session(engineFrom(SWAP_NET));
         onCrashSaveReplay((why) => {
           const path = crashReplayPath(io);
-          io.writeFile(path, s.exportReplay({ reason: 'events', detail: `automatic replay: ${why}` }));
+          io.writeFile(path, s.exportReplay({ reason: 'crash', detail: `automatic replay: ${why}` }));
           return path;
         });
         for (let i = 0; i < 50; i++) s.stepForward();
@@ -172,7 +210,14 @@ describe('replay files', () => {
     expect(replayPath.startsWith('/crash/')).toBe(true);
     const replay = parseReplay(io.files.get(replayPath)!);
     expect(replay.events).toHaveLength(50);
-    expect(verifyReplay(replay).ok).toBe(true);
+    expect(replay.stop.reason).toBe('crash');
+    const v = verifyReplay(replay);
+    expect(v.ok).toBe(true);
+    expect(v.partial).toBe(true);
+    // the CLI says it is partial
+    const out = await runCli(['replay', 'a.json', '--verify'], { 'a.json': io.files.get(replayPath)! });
+    expect(out.code).toBe(0);
+    expect(out.stdout).toContain('verified up to the crash: all 50 events match; this replay is partial');
     expect(err).toMatch(/crash report: \/crash\/crash-/);
   });
 });

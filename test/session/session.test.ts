@@ -8,7 +8,7 @@ import { DISAGREE_NET, engineFrom, noiseWith, purificationNet, SWAP_NET } from '
 
 /** Every field of a world, with density matrices as their exact bytes. */
 function bits(w: World): string {
-  return JSON.stringify(w, (_k, v) => (v instanceof Float64Array ? Buffer.from(v.buffer, v.byteOffset, v.byteLength).toString('hex') : v));
+  return JSON.stringify(w, (_k, v) => (v instanceof Float64Array ? Buffer.from(v.buffer, v.byteOffset, v.byteLength).toString('hex') : v instanceof Map ? [...v.entries()] : v));
 }
 
 /** Worlds 0..n by plain stepping, the reference the session must reproduce exactly. */
@@ -48,8 +48,8 @@ describe('rewind', () => {
         const engine = engineFrom(net, NOISY(seed, f));
         // enough reference worlds for the longest walk: 10 ops of at most 15 steps after a jump to 260
         const ref = reference(engine, seed, 430);
-        // a tiny window and keyframe interval so that every path (window, keyframes, rebuilds) is taken
-        const s = new Session(engine, { seed, window: 8, keyframeInterval: 16, maxKeyframes: 4 });
+        // a tiny window, keyframe interval and budget, so that every path (window, keyframes, thinning, rebuilds) is taken
+        const s = new Session(engine, { seed, window: 8, keyframeInterval: 16, budgetBytes: 60_000 });
         for (const o of ops) {
           if (o.kind === 'fwd') for (let i = 0; i < o.n; i++) s.stepForward();
           else if (o.kind === 'back') for (let i = 0; i < o.n; i++) s.stepBack();
@@ -78,18 +78,30 @@ describe('rewind', () => {
     s.stepBack();
     expect(bits(s.world())).toBe(ref[36]);
     expect(s.event()?.index).toBe(35);
-    const t = s.history.records[300].time_ns;
+    const t = s.history.timeOf(300);
     s.gotoTime(t);
     expect(s.world().time).toBeLessThanOrEqual(t);
-    expect(s.history.records[s.cursor].time_ns).toBeGreaterThan(t);
+    expect(s.history.timeOf(s.cursor)).toBeGreaterThan(t);
   });
 
-  it('keeps the keyframes within their bound on a long run', () => {
-    const s = new Session(engineFrom(SWAP_NET), { window: 32, keyframeInterval: 8, maxKeyframes: 10 });
-    s.goto(5000);
-    expect(s.history.keyframeCount).toBeLessThanOrEqual(10);
-    expect(s.history.keyframeInterval).toBeGreaterThan(8);
-    expect(s.cursor).toBe(5000);
+  it('keeps the whole history within its budget on a long run, keyframes dense near the cursor and sparse far back', () => {
+    const budget = 2_000_000;
+    const s = new Session(engineFrom(SWAP_NET), { window: 32, keyframeInterval: 8, budgetBytes: budget });
+    s.goto(20_000);
+    expect(s.cursor).toBe(20_000);
+    expect(s.history.bytes).toBeLessThanOrEqual(budget);
+    const kf = s.history.keyframesBelow(20_001, 1e9).sort((a, b) => a - b);
+    const gaps = (lo: number, hi: number) => {
+      const ks = kf.filter((k) => k >= lo && k <= hi);
+      return ks.length < 2 ? Infinity : (ks[ks.length - 1] - ks[0]) / (ks.length - 1);
+    };
+    // thinned: fewer than one every 8 events over the run, and sparser far back than near the cursor
+    expect(kf.length).toBeLessThan(20_000 / 8);
+    expect(gaps(0, 5000)).toBeGreaterThan(gaps(15_000, 20_000));
+    // and any world is still exact: one far back, re-simulated from the nearest keyframe
+    const ref = reference(engineFrom(SWAP_NET), 1, 3001);
+    s.goto(3000);
+    expect(bits(s.world())).toBe(ref[3000]);
   });
 
   it('reports the start and the end of the run', () => {
@@ -178,7 +190,7 @@ describe('watches and explanations', () => {
     expect(Number(w.value)).toBe(deliveredCount(s.world()));
     const last = recentDeliveries(s.world()).next().value!;
     // the change happened at the event that completed the last delivery
-    expect(s.history.records[w.changedAt!].time_ns).toBe(last.time_ns);
+    expect(s.history.timeOf(w.changedAt!)).toBe(last.time_ns);
   });
 
   it('finds when a watch last changed even after a jump, through keyframes', () => {

@@ -49,11 +49,11 @@ describe('commands', () => {
     expect(runCommand(c, 'go 5')).toMatchObject({ ok: true });
     expect(c.session.cursor).toBe(6);
     expect(c.session.event()?.index).toBe(5);
-    const t = c.session.history.records[3].time_ns;
+    const h = c.session.history;
+    const t = h.timeOf(3);
     expect(runCommand(c, `go ${formatDuration(t)}`)).toMatchObject({ ok: true });
-    const recs = c.session.history.records;
-    expect(recs[c.session.cursor - 1].time_ns).toBeLessThanOrEqual(t);
-    expect(recs[c.session.cursor]?.time_ns ?? Infinity).toBeGreaterThan(t);
+    expect(h.timeOf(c.session.cursor - 1)).toBeLessThanOrEqual(t);
+    expect(c.session.cursor < h.frontier ? h.timeOf(c.session.cursor) : Infinity).toBeGreaterThan(t);
     runCommand(c, 'go start');
     expect(c.session.cursor).toBe(0);
   });
@@ -99,8 +99,8 @@ describe('commands', () => {
     runCommand(c, 'step 3');
     expect(runCommand(c, 'save out.replay.json')).toEqual({ ok: true, said: 'replay written to out.replay.json' });
     const r = JSON.parse(files.get('out.replay.json')!);
-    expect(r.format).toBe('bellstep/replay@1');
-    expect(r.events).toHaveLength(3);
+    expect(r.format).toBe('bellstep/replay@2');
+    expect(r.final.events).toBe(3);
   });
 
   it('are all listed with a description', () => {
@@ -150,21 +150,44 @@ describe('the controller', () => {
     expect(c.note?.lines[0]).toMatch(/stalled/);
   });
 
-  it('continues in slices that keep the screen live, and Esc stops between slices', () => {
+  it('continues in slices that keep the screen live, shows its progress, and Esc stops it where it got to', () => {
     const queue: (() => void)[] = [];
-    const c = new Controller(new Session(engineFrom(SWAP_NET, SWAP_NOISE), { continueLimit: 50 }), { defer: (fn) => void queue.push(fn) });
+    const c = new Controller(new Session(engineFrom(SWAP_NET, SWAP_NOISE)), { defer: (fn) => void queue.push(fn) });
     c.act('continue');
     expect(c.busy).toBe('running forward…');
     queue.shift()!();
-    expect(c.session.cursor).toBe(50);
-    expect(c.busy).toMatch(/50 events so far/);
+    const first = c.session.total;
+    expect(first).toBeGreaterThan(0);
+    expect(c.busy).toMatch(/^running forward: [\d,]+ events done · simulated /);
+    // the cursor stays put while it runs; keys other than Esc and q wait
+    expect(c.session.cursor).toBe(0);
+    c.handleKey('', key({ rightArrow: true }));
+    expect(c.session.cursor).toBe(0);
     queue.shift()!();
-    expect(c.session.cursor).toBe(100);
+    expect(c.session.total).toBeGreaterThan(first);
     c.handleKey('', key({ escape: true }));
-    queue.shift()!();
     expect(c.busy).toBeUndefined();
-    expect(queue).toHaveLength(0);
-    expect(c.note?.lines[0]).toMatch(/stopped by Esc after 150 events/);
+    // a valid moment: the world at the last event computed
+    expect(c.session.cursor).toBe(c.session.total);
+    expect(c.note?.lines[0]).toMatch(/stopped after \d+ events/);
+    // the slice that was queued finds nothing left to do
+    for (const fn of queue.splice(0)) fn();
+    expect(c.busy).toBeUndefined();
+  });
+
+  it('takes a pasted command line in one piece as if typed key by key', () => {
+    const c = controllerFor(SWAP_NET, SWAP_NOISE);
+    c.handleKey(':go 40\r', key({}));
+    expect(c.mode).toBe('normal');
+    expect(c.session.cursor).toBe(41);
+  });
+
+  it('refuses, inline, an event number beyond what the engine can count', () => {
+    const c = controllerFor(SWAP_NET, SWAP_NOISE);
+    c.handleKey(':go 99999999999999999999\r', key({}));
+    expect(c.mode).toBe('command');
+    expect(c.command.hint?.lines[0]).toMatch(/more events than bellstep can count/);
+    expect(c.session.total).toBe(0);
   });
 
   it('turns a crash into an exit with the error, not a note', () => {

@@ -88,9 +88,9 @@ describe('the debugger panes', () => {
     const c = controllerFor(SWAP_NET, SWAP_NOISE);
     const r = open(c);
     await r.until('SITES');
-    while (Object.keys(c.session.world().inflight).length === 0) await press(r, c, KEY.right);
+    while (c.session.world().inflight.size === 0) await press(r, c, KEY.right);
     const w = c.session.world();
-    const m = Object.values(w.inflight).sort((a, b) => a.arrives - b.arrives)[0];
+    const m = [...w.inflight.values()].sort((a, b) => a.arrives - b.arrives)[0];
     await r.until(`${m.from} → ${m.to} ${m.kind}`);
     expect(r.frame()).toContain(`arrives in ${formatDuration(m.arrives - w.time)}`);
     expect(r.frame()).toContain('★ fired at this event');

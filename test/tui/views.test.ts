@@ -76,7 +76,7 @@ describe('the timeline', () => {
   it('draws a message as a slanted line from the sender column towards the receiver', () => {
     const s = new Session(engineFrom(purificationNet({ lengthKm: 40 }), noiseWith('{werner: 0.9}', '    success: 0.5')));
     const log = new EventLog(s);
-    while (Object.keys(s.world().inflight).length === 0) s.stepForward();
+    while (s.world().inflight.size === 0) s.stepForward();
     const lines = timelineView({ net: s.engine.net, world: s.world(), records: s.history.records, log, cursor: s.cursor, site: 'kiln', back: 0 }, 40, 10).map(lineText);
     // kiln is left of weir and its parity message is on its way: the last row leans right
     expect(lines[0]).toMatch(/kiln\s+weir/);

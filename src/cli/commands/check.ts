@@ -1,7 +1,9 @@
 /** `bellstep check`: validate a program set (and noise model), then run the static analysis (FORMAT.md §5). */
 import { InputError, InputErrors } from '../../model/errors.js';
-import { lint, type Finding } from '../../model/index.js';
-import { loadFiles } from '../inputs.js';
+import { check } from '../../api/check.js';
+import { loaded } from '../../api/inputs.js';
+import type { Finding } from '../../model/index.js';
+import { readInputs } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 /** Format tag of `check --json` output. */
@@ -33,8 +35,9 @@ export const checkCommand: CommandSpec = {
     let findings: Finding[];
     let summary: string;
     try {
-      const { programSet, noise } = loadFiles(io, netPath, noisePath, undefined);
-      findings = lint(programSet, noise);
+      const inputs = readInputs(io, netPath, noisePath);
+      findings = check(inputs);
+      const { programSet } = loaded(inputs);
       const rules = Object.values(programSet.programs).reduce((n, p) => n + p.rules.length, 0);
       summary = `${plural(programSet.nodes.length, 'node')}, ${plural(programSet.links.length, 'link')}, ${plural(rules, 'rule')}`;
     } catch (err) {

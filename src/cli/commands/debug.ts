@@ -3,15 +3,15 @@
  * from the files or, with --replay, from the replay file; --at opens the cursor on an
  * event; --autoplay starts teaching mode. Without a terminal it points to `bellstep run`.
  */
-import { Engine } from '../../engine/index.js';
+import { inputsOf, type Inputs } from '../../api/inputs.js';
+import { openSessionWith } from '../../api/session.js';
 import { InputError } from '../../model/errors.js';
 import { parseReplay } from '../../session/replay.js';
-import { Session } from '../../session/session.js';
 import { engineFromReplay } from '../../session/verify.js';
 import { crashReplayPath, onCrashSaveReplay } from '../crash.js';
-import { checkOutput, writeOutput } from '../outputs.js';
+import { checkOutput, writeOutput, writeRegularFile } from '../outputs.js';
 import type { CliIo } from '../io.js';
-import { loadFiles, many, parseCount, parseSeed, readInput } from '../inputs.js';
+import { many, parseCount, parseSeed, readInput, readInputs } from '../inputs.js';
 import { HISTORY_DEFAULTS, type HistoryOptions } from '../../session/history.js';
 import { EXIT, type CommandSpec, type OptionSpec } from '../spec.js';
 
@@ -27,14 +27,16 @@ export interface OpenOptions {
   /** History bounds from --window and --history-mb. */
   readonly history?: HistoryOptions;
   /** The files the debugger was opened on, which `save` must never overwrite. */
-  readonly inputs?: readonly (string | undefined)[];
+  readonly inputFiles?: readonly (string | undefined)[];
+  /** The seed (default: the noise model's). */
+  readonly seed?: number;
 }
 
 /** Parses --window and --history-mb into history bounds (defaults in session/history.ts). */
 export function parseHistory(opts: Readonly<Record<string, unknown>>): HistoryOptions {
   const window = parseCount(opts.window, '--window');
   const mb = parseCount(opts.historyMb, '--history-mb');
-  return { window, keyframeBytes: mb === undefined ? undefined : mb * 1024 * 1024 };
+  return { window, budgetBytes: mb === undefined ? undefined : mb * 1024 * 1024 };
 }
 
 /** Parses `--autoplay`: events per second, more than 0 and at most 100. */
@@ -59,18 +61,17 @@ function ciSet(env: Readonly<Record<string, string | undefined>>, key: string): 
   return env[key] !== undefined && env[key] !== '0' && env[key] !== 'false';
 }
 
-/** How the debugger's `save FILE` writes: with the checks of every output, never over one of its inputs. */
+/** How the debugger writes a file (`save FILE`, `chart FILE`): with the checks of every output, never over one of its inputs. */
 export function saveWriter(io: CliIo, inputs: readonly (string | undefined)[]): (path: string, text: string) => void {
   return (path, text) => {
-    checkOutput(io, path, 'save', inputs, 'stall.replay.json');
-    writeOutput(io, path, text, 'save');
+    checkOutput(io, path, 'FILE', inputs, 'stall.replay.json');
+    writeOutput(io, path, text, 'FILE');
   };
 }
 
-/** Opens the debugger on an engine once both streams are terminals; returns the exit code. */
-export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions): Promise<number> {
-  // continue runs in slices of this many events so the screen stays live (tui/controller.ts)
-  const session = new Session(engine, { continueLimit: 20_000, ...opts.history });
+/** Opens the debugger on validated inputs once both streams are terminals; returns the exit code. */
+export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions): Promise<number> {
+  const session = openSessionWith(inputs, { ...opts.history, seed: opts.seed });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(
@@ -84,11 +85,12 @@ export async function openDebugger(io: CliIo, engine: Engine, opts: OpenOptions)
   // before Ink is loaded
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
-  if (opts.at !== undefined) session.goto(opts.at + 1);
-  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: saveWriter(io, opts.inputs ?? []) });
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: saveWriter(io, opts.inputFiles ?? []), readFile: (p) => io.readFile(p) });
+  // a far --at is a long jump: it runs in slices once the screen is up, with its progress shown
+  if (opts.at !== undefined) controller.runLong(session.startGoto(opts.at + 1));
   onCrashSaveReplay((why) => {
     const path = crashReplayPath(io);
-    io.writeFile(path, session.exportReplay({ reason: 'events', detail: `automatic replay after an internal error in the debugger: ${why}` }));
+    writeRegularFile(io, path, session.exportReplay({ reason: 'crash', detail: `automatic replay after an internal error in the debugger: ${why}` }));
     return path;
   });
   // on a crash this throws with the hook still set, so the CLI's report can save the replay
@@ -105,7 +107,7 @@ export const DEBUG_OPTIONS: readonly OptionSpec[] = [
   { flags: '--at <I>', description: 'with --replay: open with the cursor on event I' },
   { flags: '--autoplay <RATE>', description: 'teaching mode: step RATE events per second, narrating each (Space pauses)' },
   { flags: '--window <N>', description: `worlds kept one per event near the cursor, at least N and at most 2N (default ${HISTORY_DEFAULTS.window})` },
-  { flags: '--history-mb <MB>', description: `memory for keyframes further back; beyond it they are thinned (default ${HISTORY_DEFAULTS.keyframeBytes / 1024 / 1024})` },
+  { flags: '--history-mb <MB>', description: `memory kept for rewind (records, recent worlds, keyframes); beyond it keyframes far from the cursor are thinned (default ${HISTORY_DEFAULTS.budgetBytes / 1024 / 1024})` },
 ];
 
 export const debugCommand: CommandSpec = {
@@ -130,15 +132,15 @@ export const debugCommand: CommandSpec = {
       if (at !== undefined && at >= replay.events.length) {
         throw new InputError({ code: 'usage', field: '--at', message: `the replay holds events 0 to ${replay.events.length - 1}, not ${at}`, fix: `write --at ${Math.max(0, replay.events.length - 1)} or less` });
       }
-      return openDebugger(io, engineFromReplay(replay), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts), inputs: [path, netPath] });
+      const { programSet, noise } = engineFromReplay(replay).net;
+      return openDebugger(io, inputsOf(programSet, noise), { breaks: [...replay.breakpoints, ...breaks], at, autoplay, runHint: `bellstep replay ${path} --verify`, history: parseHistory(opts), seed: replay.seed, inputFiles: [path, netPath] });
     }
     if (netPath === undefined) {
       throw new InputError({ code: 'usage', field: 'NET.yaml', message: 'debug needs a program set or --replay', fix: 'write e.g. bellstep debug swap.net.yaml --noise swap.noise.yaml' });
     }
     if (at !== undefined) throw new InputError({ code: 'usage', field: '--at', message: '--at needs --replay', fix: 'to open at an event of a fresh run, use the command "go N" inside the debugger' });
-    const { programSet, noise } = loadFiles(io, netPath, opts.noise as string | undefined, seedFlag);
-    const engine = new Engine(programSet, noise);
+    const inputs = readInputs(io, netPath, opts.noise as string | undefined);
     const hint = ['bellstep run', netPath, ...(opts.noise ? ['--noise', String(opts.noise)] : []), ...(seedFlag !== undefined ? ['--seed', String(seedFlag)] : []), ...breaks.map((b) => `--break "${b}"`)].join(' ');
-    return openDebugger(io, engine, { breaks, autoplay, runHint: hint, history: parseHistory(opts), inputs: [netPath, opts.noise as string | undefined] });
+    return openDebugger(io, inputs, { breaks, autoplay, runHint: hint, history: parseHistory(opts), seed: seedFlag, inputFiles: [netPath, opts.noise as string | undefined] });
   },
 };

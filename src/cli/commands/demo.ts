@@ -7,8 +7,7 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { Engine } from '../../engine/index.js';
-import { loadInputs } from '../../model/index.js';
+import { loadText } from '../../api/inputs.js';
 import { parseSeed } from '../inputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 import { openDebugger, parseRate } from './debug.js';
@@ -101,14 +100,13 @@ export const demoCommand: CommandSpec = {
       io.stderr(`bellstep: the scenario "${name}" has no .net.yaml in ${demo.dir}\n`);
       return EXIT.input;
     }
-    const { programSet, noise } = loadInputs({
-      netFile: demo.net,
-      netText: readFileSync(demo.net, 'utf8'),
+    const inputs = loadText({
+      programSetFile: demo.net,
+      programSet: readFileSync(demo.net, 'utf8'),
       noiseFile: demo.noise,
-      noiseText: demo.noise ? readFileSync(demo.noise, 'utf8') : undefined,
-      seed,
+      noise: demo.noise ? readFileSync(demo.noise, 'utf8') : undefined,
     });
     const hint = `bellstep run ${demo.net}${demo.noise ? ` --noise ${demo.noise}` : ''}`;
-    return openDebugger(io, new Engine(programSet, noise), { breaks: [], autoplay, runHint: hint, inputs: [demo.net, demo.noise] });
+    return openDebugger(io, inputs, { breaks: [], autoplay, runHint: hint, seed, inputFiles: [demo.net, demo.noise] });
   },
 };

@@ -8,5 +8,7 @@ import { debugCommand } from './debug.js';
 import { demoCommand } from './demo.js';
 import { sweepCommand } from './sweep.js';
 import { mergeCommand } from './merge.js';
+import { chartCommand } from './chart.js';
+import { diffCommand } from './diff.js';
 
-export const COMMANDS: CommandSpec[] = [debugCommand, runCommand, replayCommand, checkCommand, sweepCommand, mergeCommand, schemaCommand, demoCommand];
+export const COMMANDS: CommandSpec[] = [debugCommand, runCommand, replayCommand, checkCommand, sweepCommand, mergeCommand, chartCommand, diffCommand, schemaCommand, demoCommand];

@@ -1,4 +1,4 @@
-/** `bellstep replay R.json [--verify] [--json] [--junit OUT.xml]` (FORMAT.md §5, §7). */
+/** `bellstep replay R.json [--verify] [--json] [--junit OUT.xml]` (docs/cli.md). */
 import { plural } from '../../model/words.js';
 import { formatValue } from '../../expr/index.js';
 import { formatDuration } from '../../model/units.js';
@@ -44,8 +44,23 @@ export function junitReport(name: string, r: ReplayFile, v: VerifyResult, second
   ]);
 }
 
+/** `all 12 events`, `the one event`, `no events`. */
+function everyEvent(n: number): string {
+  return n === 0 ? 'no events' : n === 1 ? 'the one event' : `all ${n} events`;
+}
+
+/** The verify's verdict in words. */
+function verdict(r: ReplayFile, v: VerifyResult): string {
+  if (v.divergence) {
+    const head = v.divergence.field === 'stop' ? `DIVERGED: ${everyEvent(v.checked)} recorded match, but the run does not end where the recording says` : `DIVERGED after ${plural(v.checked, 'matching event')}`;
+    return `${head}\n  ${v.divergence.message}\n`;
+  }
+  if (v.partial) return `verified up to the crash: ${everyEvent(v.checked)} match; this replay is partial (${r.stop.detail})\n`;
+  return `verified: ${everyEvent(v.checked)} match the recording, and the run stops there (${r.stop.reason})\n`;
+}
+
 function describe(r: ReplayFile): string {
-  const last = r.events[r.events.length - 1];
+  const last = r.events.length ? r.events.at(r.events.length - 1) : undefined;
   return [
     `replay of ${r.inputs.program_set.file}${r.inputs.noise ? ` with ${r.inputs.noise.file}` : ''}, seed ${r.seed}, by ${r.tool.name} ${r.tool.version}`,
     `${plural(r.events.length, 'event')} up to ${formatDuration(last?.time_ns ?? 0)}; stopped: ${r.stop.reason} — ${r.stop.detail}`,
@@ -79,7 +94,7 @@ export const replayCommand: CommandSpec = {
     if (opts.json) {
       io.stdout(`${JSON.stringify({ format: 'bellstep/verify@1', ...result }, null, 2)}\n`);
     } else {
-      io.stdout(result.divergence ? `DIVERGED after ${plural(result.checked, 'matching event')}\n  ${result.divergence.message}\n` : `verified: ${result.checked === 1 ? 'the one event matches' : `all ${result.checked} events match`} the recording\n`);
+      io.stdout(verdict(replay, result));
       for (const line of describeExpectations(result.expectations)) io.stdout(`${line}\n`);
     }
     return result.ok && result.expectations.every((e) => e.ok) ? EXIT.ok : EXIT.problems;

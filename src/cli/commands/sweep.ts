@@ -1,28 +1,14 @@
 /** `bellstep sweep`: one headless run per seed of a range, on worker threads (FORMAT.md §5, §8). */
-import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
-import { InputError } from '../../model/errors.js';
+import { executeSweep, sweepJob, workerCount, type SweepPlan } from '../../api/sweep.js';
 import { junitXml } from '../../report/junit.js';
 import { serializeSweep } from '../../sweep/report.js';
-import { prepareJob } from '../../sweep/run-seed.js';
 import { parseSeedRange, parseShard, shardSize } from '../../sweep/seeds.js';
-import { runSweep } from '../../sweep/sweep.js';
-import type { SweepJob } from '../../sweep/types.js';
-import { loadFiles, many, parseCount, parseDurationFlag } from '../inputs.js';
+import { many, parseCount, parseDurationFlag, readInputs } from '../inputs.js';
 import { checkFolderOutput, checkNotInput, checkOutput, writeOutput } from '../outputs.js';
 import { SweepProgress } from '../progress.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 import { replayName, sweepSuite, sweepText, type OpenHints } from '../sweep-output.js';
-
-/** More threads than this only queue for the same cores. */
-const MAX_WORKERS = 256;
-
-function parseWorkers(v: unknown): number {
-  if (v === undefined) return Math.min(MAX_WORKERS, availableParallelism());
-  const n = parseCount(v, '--workers')!;
-  if (n > MAX_WORKERS) throw new InputError({ code: 'usage', field: '--workers', message: `${n} workers is more than ${MAX_WORKERS}`, fix: `leave --workers out to use one per core (${availableParallelism()} here)` });
-  return n;
-}
 
 export const sweepCommand: CommandSpec = {
   name: 'sweep',
@@ -42,28 +28,21 @@ export const sweepCommand: CommandSpec = {
     { flags: '--junit <OUT.xml>', description: 'write a JUnit report: one failing case per signature, one passing case for the rest' },
   ],
   async run({ io }, [netPath], opts) {
-    const range = parseSeedRange(opts.seeds);
-    const shard = parseShard(opts.shard);
-    const workers = parseWorkers(opts.workers);
-    const untilNs = parseDurationFlag(opts.until, '--until');
-    const maxEvents = parseCount(opts.events, '--events');
+    const plan: SweepPlan = {
+      range: parseSeedRange(opts.seeds),
+      shard: parseShard(opts.shard),
+      workers: workerCount(parseCount(opts.workers, '--workers'), '--workers'),
+      untilNs: parseDurationFlag(opts.until, '--until'),
+      maxEvents: parseCount(opts.events, '--events'),
+      breaks: many(opts.break),
+      expects: many(opts.expect),
+      names: { break: '--break', expect: '--expect' },
+    };
+    const { range, shard } = plan;
     const noisePath = opts.noise as string | undefined;
     const saveDir = opts.saveFailures === undefined ? undefined : String(opts.saveFailures);
     const junit = opts.junit === undefined ? undefined : String(opts.junit);
-    const { programSet, noise } = loadFiles(io, netPath, noisePath, undefined);
-    const job: SweepJob = {
-      netFile: netPath,
-      netText: programSet.text,
-      noiseFile: noisePath,
-      noiseText: noisePath === undefined ? undefined : noise.text,
-      untilNs,
-      maxEvents,
-      breaks: many(opts.break),
-      expects: many(opts.expect),
-      recordFailures: saveDir !== undefined,
-    };
-    // breakpoints and expectations are checked here, once, so a mistake is exit 2 before any worker starts
-    prepareJob(job);
+    const job = sweepJob(readInputs(io, netPath, noisePath), plan, saveDir !== undefined);
     if (junit !== undefined) checkOutput(io, junit, '--junit', [netPath, noisePath], 'report.xml');
     if (saveDir !== undefined) {
       checkNotInput(saveDir, '--save-failures', [netPath, noisePath], io);
@@ -74,21 +53,16 @@ export const sweepCommand: CommandSpec = {
     const t0 = Date.now();
     const progress = new SweepProgress(io, shardSize(range, shard));
     let writeError: unknown;
-    const { report, ms } = await runSweep(job, {
-      range,
-      shard,
-      workers,
-      onSeed: (result) => {
-        progress.seed(result.run.outcome !== 'ok');
-        if (saveDir !== undefined && result.replay !== undefined && writeError === undefined) {
-          // written as they come, so a long sweep keeps what it found even if stopped
-          try {
-            writeOutput(io, join(saveDir, replayName(result.run.seed)), result.replay, '--save-failures');
-          } catch (e) {
-            writeError = e;
-          }
+    const { report, ms } = await executeSweep(job, plan, (result) => {
+      progress.seed(result.run.outcome !== 'ok');
+      if (saveDir !== undefined && result.replay !== undefined && writeError === undefined) {
+        // written as they come, so a long sweep keeps what it found even if stopped
+        try {
+          writeOutput(io, join(saveDir, replayName(result.run.seed)), result.replay, '--save-failures');
+        } catch (e) {
+          writeError = e;
         }
-      },
+      }
     });
     progress.finish();
     const rerun = [netPath, ...(noisePath ? ['--noise', noisePath] : []), ...job.breaks.flatMap((b) => ['--break', b])];

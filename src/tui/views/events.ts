@@ -4,12 +4,11 @@
  * (after a step back) are shown dim. Only the visible rows are built.
  */
 import { formatDuration } from '../../model/units.js';
-import type { ReplayEvent } from '../../session/replay.js';
-import type { Line, Seg } from '../lines.js';
+import type { Line, RecordList, Seg } from '../lines.js';
 import { fit, pad, padLeft, wrap } from '../text.js';
 
 export interface EventsInput {
-  readonly records: readonly ReplayEvent[];
+  readonly records: RecordList;
   /** Events applied at the cursor (the cursor's event is records[cursor − 1]). */
   readonly cursor: number;
   /** Index of the selected event (moved with ↑/↓ while the pane has focus). */
@@ -43,7 +42,7 @@ export function eventsView(inp: EventsInput, cols: number, rows: number): Line[]
   const start = Math.max(0, Math.min(sel, end - room + 1));
   const idxW = String(total - 1).length + 1;
   for (let i = start; i <= Math.min(total - 1, start + room - 1); i++) {
-    const r = inp.records[i];
+    const r = inp.records.at(i)!;
     const atCursor = i === inp.cursor - 1;
     const ahead = i >= inp.cursor;
     const isSel = inp.focused && i === sel;

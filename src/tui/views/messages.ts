@@ -12,7 +12,7 @@ import type { PaneView } from './network.js';
 /** The messages pane's lines at the world's time. */
 export function messagesView(w: World, site: string, cols: number): PaneView {
   const lines: Line[] = [];
-  const flying = Object.values(w.inflight).sort((a, b) => a.arrives - b.arrives || String(a.id).localeCompare(String(b.id)));
+  const flying = [...w.inflight.values()].sort((a, b) => a.arrives - b.arrives || String(a.id).localeCompare(String(b.id)));
   const push = (text: string, tone: Line[number]['tone']) => {
     for (const l of wrap(text, cols, '    ')) lines.push([{ text: l, tone }]);
   };

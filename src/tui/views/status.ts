@@ -14,6 +14,7 @@ const STOP_WORDS: Record<string, string> = {
   stall: 'STALLED',
   idle: 'finished',
   limit: 'paused: no breakpoint hit yet',
+  cancelled: 'stopped by Esc',
 };
 
 /** The status line's segments. */

@@ -6,9 +6,8 @@
  */
 import type { EngineEvent, FireRecord, Net, World } from '../../engine/index.js';
 import { formatDuration } from '../../model/units.js';
-import type { ReplayEvent } from '../../session/replay.js';
 import type { EventLog } from '../event-log.js';
-import type { Line, Seg, Tone } from '../lines.js';
+import type { Line, RecordList, Seg, Tone } from '../lines.js';
 import { fit, padLeft } from '../text.js';
 import { chainOrder } from './network.js';
 
@@ -68,7 +67,7 @@ export interface TimelineInput {
   readonly net: Net;
   /** The world at the cursor (its in-flight messages continue below the last row). */
   readonly world: World;
-  readonly records: readonly ReplayEvent[];
+  readonly records: RecordList;
   readonly log: EventLog;
   readonly cursor: number;
   readonly site: string;
@@ -127,19 +126,19 @@ export function timelineView(inp: TimelineInput, cols: number, rows: number): Li
     take(ev, i);
   }
   if (inp.back === 0) {
-    for (const m of Object.values(inp.world.inflight)) {
+    for (const m of inp.world.inflight.values()) {
       if (!flights.has(m.id)) flights.set(m.id, { from: m.from, to: m.to, sent: m.sent, arrives: m.arrives, sentAt: -1 });
     }
   }
-  const tStart = inp.records[start]?.time_ns ?? 0;
+  const tStart = start < inp.records.length ? inp.records.at(start)!.time_ns : 0;
   const live = [...flights.entries()].filter(([id, f]) => {
     const arr = arrivedAt.get(id);
     return arr === undefined ? f.arrives >= tStart : arr > start;
   });
 
-  let prevT = start > 0 ? inp.records[start - 1].time_ns : 0;
+  let prevT = start > 0 ? inp.records.at(start - 1)!.time_ns : 0;
   for (let r = start; r <= end; r++) {
-    const rec = inp.records[r];
+    const rec = inp.records.at(r)!;
     const t = rec.time_ns;
     const cells: string[] = new Array(gridW).fill(' ');
     const tones: Tone[] = new Array(gridW).fill('plain');

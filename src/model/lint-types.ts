@@ -14,7 +14,7 @@ import { closest } from './suggest.js';
 import type { Expr, ProgramSet, Rule, Step } from './types.js';
 
 /** What a value is, as far as the text tells. */
-export type Kind = 'number' | 'string' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
+export type Kind = 'number' | 'string' | 'id' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
 
 /** A name a rule binds: a pair, a message (of a kind, maybe from one sender) or a bit. */
 export type Bound = { readonly kind: 'pair' } | { readonly kind: 'message'; readonly msgKind: string; readonly from?: string } | { readonly kind: 'bit' };
@@ -49,11 +49,16 @@ export class FieldIndex {
   }
 }
 
-const FIELD_KINDS: Readonly<Record<string, Kind>> = { id: 'string', partner: 'string', stage: 'string', age: 'number', born: 'number', kind: 'string', from: 'string', to: 'string', sent: 'number' };
+// a pair id ("mill~quay#3") is text that is never a node id: node ids have no "~"
+const FIELD_KINDS: Readonly<Record<string, Kind>> = { id: 'id', partner: 'string', stage: 'string', age: 'number', born: 'number', kind: 'string', from: 'string', to: 'string', sent: 'number' };
+
+/** A pair id is text, except where a node id is needed. */
+const text = (k: Kind): Kind => (k === 'id' ? 'string' : k);
 
 const WORDS: Readonly<Record<Kind, string>> = {
   number: 'a number',
   string: 'text',
+  id: 'a pair id',
   boolean: 'true or false',
   null: 'null',
   pair: 'a pair record',
@@ -96,14 +101,14 @@ export class ExprKinds {
       case 'member':
         return this.member(e, n, env);
       case 'index': {
-        const o = this.kind(e, n.object, env);
-        const i = this.kind(e, n.index, env);
+        const o = text(this.kind(e, n.object, env));
+        const i = text(this.kind(e, n.index, env));
         if (o !== 'list' && o !== 'any') this.report(e, n, 'type-mismatch', `\`${this.text(e, n.object)}\` is ${WORDS[o]}, which cannot be indexed`, 'only lists can be indexed; read a field of a record with ".name"');
         else if (i !== 'number' && i !== 'any') this.report(e, n.index, 'type-mismatch', `an index must be a whole number, but \`${this.text(e, n.index)}\` is ${WORDS[i]}`, 'index with a number, e.g. [0]');
         return 'any';
       }
       case 'unary': {
-        const a = this.kind(e, n.argument, env);
+        const a = text(this.kind(e, n.argument, env));
         if (n.op === '!') {
           this.truth(e, n.argument, a, '"!"');
           return 'boolean';
@@ -125,7 +130,7 @@ export class ExprKinds {
   }
 
   private member(e: Expr, n: Extract<ExprNode, { type: 'member' }>, env: ReadonlyMap<string, Bound>): Kind {
-    const o = this.kind(e, n.object, env);
+    const o = text(this.kind(e, n.object, env));
     const what = `\`${this.text(e, n.object)}\``;
     const at = { start: n.end - n.property.length };
     if (o === 'pair' || o === 'message') {
@@ -150,8 +155,9 @@ export class ExprKinds {
   }
 
   private binary(e: Expr, n: Extract<ExprNode, { type: 'binary' }>, env: ReadonlyMap<string, Bound>): Kind {
-    const a = this.kind(e, n.left, env);
-    const b = this.kind(e, n.right, env);
+    // a pair id is text to every operator
+    const a = text(this.kind(e, n.left, env));
+    const b = text(this.kind(e, n.right, env));
     const bad = (want: string) => this.report(e, n, 'type-mismatch', `"${n.op}" needs ${want}, but \`${this.text(e, n.left)}\` is ${WORDS[a]} and \`${this.text(e, n.right)}\` is ${WORDS[b]}`, `give "${n.op}" ${want}`);
     const isAny = (k: Kind) => k === 'any';
     switch (n.op) {
@@ -190,7 +196,7 @@ export class ExprKinds {
   private call(e: Expr, n: Extract<ExprNode, { type: 'call' }>, env: ReadonlyMap<string, Bound>): Kind {
     const spec = functionSpec(n.callee);
     n.args.forEach((arg, i) => {
-      const k = this.kind(e, arg, env);
+      const k = text(this.kind(e, arg, env));
       const param = spec?.params[Math.min(i, spec.params.length - 1)];
       if (!param || k === 'any') return;
       const fits =
@@ -202,13 +208,13 @@ export class ExprKinds {
       if (!fits) this.report(e, arg, 'type-mismatch', `${n.callee}() takes ${param.kind === 'pair' ? 'a pair (a bound name or a pair id)' : param.kind === 'pair-id' ? 'a pair id (text)' : param.kind === 'bit' ? 'bits' : 'numbers'}, but \`${this.text(e, arg)}\` is ${WORDS[k]}`, `pass ${n.callee}() ${param.kind === 'pair-id' ? 'an id, e.g. p.id' : 'the right kind of value'}`);
     });
     if (['xor', 'min', 'max', 'abs', 'floor', 'round', 'age', 'waited', 'now'].includes(n.callee)) return 'number';
-    if (n.callee === 'join') return 'string';
+    if (n.callee === 'join') return 'id';
     return 'any';
   }
 
   /** Reports a value that can never be a truth value (text, null, a record, a list). */
   truth(e: Expr, n: ExprNode, k: Kind, what: string): void {
-    if (k === 'string' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {
+    if (k === 'string' || k === 'id' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {
       this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is ${WORDS[k]}`, 'compare it with something, e.g. m.ok == 1 or p.stage == \'waiting\'');
     }
   }
@@ -219,10 +225,21 @@ export class ExprKinds {
     const k = this.kind(e, e.compiled.ast, env);
     if (want === 'truth') return this.truth(e, e.compiled.ast, k, what);
     if (k === 'any') return;
-    const ok = want === 'number' ? k === 'number' : want === 'node' ? k === 'string' : want === 'id' ? k === 'string' : want === 'id-or-null' ? k === 'string' || k === 'null' : true;
+    const literal = e.compiled.ast.type === 'literal' ? e.compiled.ast.value : undefined;
+    // a node written as text must be a node of the network
+    if (want === 'node' && typeof literal === 'string' && !this.nodeIds.has(literal)) {
+      this.report(e, e.compiled.ast, 'type-mismatch', `${what} needs a node id, but ${JSON.stringify(literal)} is not a node of the network`, `write one of ${[...this.nodeIds].sort().join(', ')}`);
+      return;
+    }
+    const t = text(k);
+    const ok = want === 'number' ? t === 'number' : want === 'node' ? k === 'string' : want === 'id' ? t === 'string' : want === 'id-or-null' ? t === 'string' || t === 'null' : true;
     if (ok) return;
     const fix =
-      want === 'node' ? (k === 'pair' ? `write ${e.compiled.source}.partner for the node at its other end` : k === 'message' ? `write ${e.compiled.source}.from for its sender` : 'write a node id')
+      want === 'node'
+        ? k === 'pair' ? `write ${e.compiled.source}.partner for the node at its other end`
+        : k === 'message' ? `write ${e.compiled.source}.from for its sender`
+        : k === 'id' && /\.id$/.test(e.compiled.source) ? `a pair id names a pair, not a node: write ${e.compiled.source.replace(/\.id$/, '.partner')} for the node at its other end`
+        : 'write a node id'
       : want === 'id' || want === 'id-or-null' ? (k === 'pair' ? `write ${e.compiled.source}.id` : 'write a pair id (text)')
       : 'write a number';
     this.report(e, e.compiled.ast, 'type-mismatch', `${what} needs ${want === 'node' ? 'a node id' : want === 'number' ? 'a number' : 'a pair id'}, but \`${e.compiled.source}\` is ${WORDS[k]}`, fix);

@@ -79,7 +79,19 @@ describe('check finds what run would refuse', () => {
     expect((await findings(angle))[0].message).toContain('the angle needs a number, but `b` is a pair record');
     await runRefuses(angle, /angle "b" is not a number/);
     const truth = SWAP_NET.replace('- have: {partner: ridge, as: b}', '- have: {partner: ridge, as: b}\n          - check: "b.id"');
-    expect((await findings(truth))[0].message).toContain('the check needs true/false (or a bit 0/1), but `b.id` is text');
+    expect((await findings(truth))[0].message).toContain('the check needs true/false (or a bit 0/1), but `b.id` is a pair id');
+  });
+
+  it('a pair id or a text that is no node where a node is needed', async () => {
+    const net = SWAP_NET.replace("send: {to: quay, kind: swapped, pair: a.id", "send: {to: a.id, kind: swapped, pair: a.id");
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toContain('type-mismatch');
+    const f = fs.find((x) => x.code === 'type-mismatch')!;
+    expect(f.message).toBe('"to" needs a node id, but `a.id` is a pair id');
+    expect(f.fix).toContain('write a.partner');
+    await runRefuses(net, /"a\.id" gave "mill~quay#\d+", which is not a node id/);
+    const text = SWAP_NET.replace("send: {to: quay, kind: swapped, pair: a.id", "send: {to: \"'quai'\", kind: swapped, pair: a.id");
+    expect((await findings(text)).find((x) => x.code === 'type-mismatch')?.message).toBe('"to" needs a node id, but "quai" is not a node of the network');
   });
 
   it('a division by zero', async () => {

@@ -3,7 +3,7 @@ import { InputError } from '../../model/errors.js';
 import { chartNote, chartOfRun } from '../../report/chart.js';
 import { loadRecordedRun } from '../../report/rerun.js';
 import { parseIndex, readInput } from '../inputs.js';
-import { checkFileOutput, checkNotInput, writeOutput } from '../outputs.js';
+import { checkOutput, writeOutput } from '../outputs.js';
 import { EXIT, type CommandSpec } from '../spec.js';
 
 export const chartCommand: CommandSpec = {
@@ -20,8 +20,7 @@ export const chartCommand: CommandSpec = {
     const to = parseIndex(opts.to, '--to');
     if (opts.o === undefined) throw new InputError({ code: 'usage', field: '-o', message: 'chart needs a file to write', fix: `write e.g. bellstep chart ${path} -o run.svg` });
     const out = String(opts.o);
-    checkNotInput(out, '-o', [path]);
-    checkFileOutput(io, out, '-o');
+    checkOutput(io, out, '-o', [path], 'run.svg');
     const { run } = loadRecordedRun(path, readInput(io, path, 'replay file'));
     const { svg, data } = chartOfRun(run, { from, to });
     writeOutput(io, out, svg, '-o');

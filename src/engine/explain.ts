@@ -46,6 +46,8 @@ export function guardText(g: Guard): string {
       if (g.pick !== 'oldest') parts.push(`pick ${g.pick}`);
       if (g.minAgeNs !== undefined) parts.push(`min_age ${formatDuration(g.minAgeNs)}`);
       if (g.maxAgeNs !== undefined) parts.push(`max_age ${formatDuration(g.maxAgeNs)}`);
+      if (g.minWaitNs !== undefined) parts.push(`min_wait ${formatDuration(g.minWaitNs)}`);
+      if (g.maxWaitNs !== undefined) parts.push(`max_wait ${formatDuration(g.maxWaitNs)}`);
       return `have ${parts.join(', ')}${g.as.length ? ` as ${g.as.join(', ')}` : ''}`;
     }
     case 'have-id':
@@ -136,6 +138,13 @@ function reasonFor(ctx: MatchContext, rule: Rule, i: number): string {
         const old = inStage.filter((p) => g.maxAgeNs !== undefined && ctx.scope.now - p.born > g.maxAgeNs);
         if (young.length) text += `; ${list(young.map((p) => p.id))} is ${formatDuration(ctx.scope.now - young[0].born)} old, younger than min_age ${formatDuration(g.minAgeNs!)}`;
         if (old.length) text += `; ${list(old.map((p) => p.id))} is older than max_age ${formatDuration(g.maxAgeNs!)}`;
+        const fresh = inStage.filter((p) => g.minWaitNs !== undefined && ctx.scope.now - p.entered < g.minWaitNs);
+        const stale = inStage.filter((p) => g.maxWaitNs !== undefined && ctx.scope.now - p.entered > g.maxWaitNs);
+        if (fresh.length) {
+          const due = fresh[0].entered + g.minWaitNs!;
+          text += `; ${list(fresh.map((p) => p.id))} entered stage "${g.stage}" ${formatDuration(ctx.scope.now - fresh[0].entered)} ago, less than min_wait ${formatDuration(g.minWaitNs!)} (due at ${formatDuration(due)})`;
+        }
+        if (stale.length) text += `; ${list(stale.map((p) => p.id))} has been in stage "${g.stage}" longer than max_wait ${formatDuration(g.maxWaitNs!)}`;
         return text;
       }
       text += inStage.length ? `; holds ${inStage.length}: ${list(inStage.map((p) => p.id))}` : `; holds none`;

@@ -180,6 +180,8 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
       case 'stage': {
         const rec = held(ctx, step.pair, step);
         rec.stage = step.to;
+        // the stage timer restarts at the step's local time (min_wait, max_wait, waited())
+        rec.entered = scope.now;
         if (ctx.detail) ctx.fire.actions.push(`${shortPairId(rec.id)} → ${step.to}`);
         break;
       }

@@ -56,10 +56,10 @@ export function herald(net: Net, w: World, link: string, emitted: number): strin
   const [qa, qb] = addCluster(w, [{ node: a, link }, { node: b, link }], info.pairRho, emitted);
   const id = linkPairId(link, ++w.counters.pair);
   const na = w.nodes[a];
-  na.pairs.push({ qubit: qa, id, partner: b, stage: 'link', born: w.time, order: na.arrivals++, link, notes: NO_NOTES });
+  na.pairs.push({ qubit: qa, id, partner: b, stage: 'link', born: w.time, entered: w.time, order: na.arrivals++, link, notes: NO_NOTES });
   w.links[link].used[a]++;
   const nb = w.nodes[b];
-  nb.pairs.push({ qubit: qb, id, partner: a, stage: 'link', born: w.time, order: nb.arrivals++, link, notes: NO_NOTES });
+  nb.pairs.push({ qubit: qb, id, partner: a, stage: 'link', born: w.time, entered: w.time, order: nb.arrivals++, link, notes: NO_NOTES });
   w.links[link].used[b]++;
   w.links[link].generating = false;
   w.links[link].generated++;

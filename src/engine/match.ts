@@ -91,6 +91,9 @@ export function haveCandidates(ctx: MatchContext, g: HaveGuard, partner: string,
     const age = now - rec.born;
     if (g.minAgeNs !== undefined && age < g.minAgeNs) continue;
     if (g.maxAgeNs !== undefined && age > g.maxAgeNs) continue;
+    const waited = now - rec.entered;
+    if (g.minWaitNs !== undefined && waited < g.minWaitNs) continue;
+    if (g.maxWaitNs !== undefined && waited > g.maxWaitNs) continue;
     out.push(rec);
   }
   if (out.length > 1) out.sort(g.pick === 'newest' ? newestFirst : oldestFirst);

@@ -112,11 +112,13 @@ export class Net {
   /** Memory and gate noise of a node: its own entry, else the defaults. */
   private readonly ageGuards = new Map<string, boolean>();
 
-  /** Whether any rule of the node has a `have` guard with min_age or max_age. */
+  /** Whether any rule of the node has a `have` guard with a timer: min_age, max_age, min_wait or max_wait. */
   hasAgeGuards(node: string): boolean {
     let v = this.ageGuards.get(node);
     if (v === undefined) {
-      v = (this.rules.get(node) ?? []).some((r) => r.when.some((g) => g.kind === 'have' && (g.minAgeNs !== undefined || g.maxAgeNs !== undefined)));
+      v = (this.rules.get(node) ?? []).some((r) =>
+        r.when.some((g) => g.kind === 'have' && (g.minAgeNs !== undefined || g.maxAgeNs !== undefined || g.minWaitNs !== undefined || g.maxWaitNs !== undefined)),
+      );
       this.ageGuards.set(node, v);
     }
     return v;

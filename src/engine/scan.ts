@@ -89,22 +89,45 @@ export function scanNode(net: Net, w: World, node: string, ev: EngineEvent, deta
   scheduleAgeWakes(net, w, node, rules);
 }
 
-/** Next moment a pair at the node reaches some rule's `min_age` or passes its `max_age`. */
+/**
+ * Next moment a pair at the node reaches some rule's `min_age` or `min_wait`, or passes its
+ * `max_age` or `max_wait`, so that timed rules fire on time without polling.
+ */
 function scheduleAgeWakes(net: Net, w: World, node: string, rules: readonly Rule[]): void {
   if (!net.hasAgeGuards(node)) return;
   const pairs = w.nodes[node].pairs;
   if (pairs.length === 0) return;
   let next = Infinity;
+  let why = 'age limit';
   for (const rule of rules) {
     for (const g of rule.when) {
-      if (g.kind !== 'have' || (g.minAgeNs === undefined && g.maxAgeNs === undefined)) continue;
+      if (g.kind !== 'have' || (g.minAgeNs === undefined && g.maxAgeNs === undefined && g.minWaitNs === undefined && g.maxWaitNs === undefined)) continue;
       const partner = staticNodeOf(g.partner, net.nodeSet) ?? undefined;
       for (const p of pairs) {
         if (p.stage !== g.stage || (partner !== undefined && p.partner !== partner)) continue;
-        if (g.minAgeNs !== undefined && p.born + g.minAgeNs > w.time) next = Math.min(next, p.born + g.minAgeNs);
-        if (g.maxAgeNs !== undefined && p.born + g.maxAgeNs + 1 > w.time) next = Math.min(next, p.born + g.maxAgeNs + 1);
+        // each bound: the moment it changes its answer, if that is still to come and sooner
+        let t = g.minAgeNs === undefined ? Infinity : p.born + g.minAgeNs;
+        if (t > w.time && t < next) {
+          next = t;
+          why = 'age limit';
+        }
+        t = g.maxAgeNs === undefined ? Infinity : p.born + g.maxAgeNs + 1;
+        if (t > w.time && t < next) {
+          next = t;
+          why = 'age limit';
+        }
+        t = g.minWaitNs === undefined ? Infinity : p.entered + g.minWaitNs;
+        if (t > w.time && t < next) {
+          next = t;
+          why = 'stage timer';
+        }
+        t = g.maxWaitNs === undefined ? Infinity : p.entered + g.maxWaitNs + 1;
+        if (t > w.time && t < next) {
+          next = t;
+          why = 'stage timer';
+        }
       }
     }
   }
-  if (Number.isFinite(next)) requestWake(w, node, next, 'age limit');
+  if (next !== Infinity) requestWake(w, node, next, why);
 }

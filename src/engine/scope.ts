@@ -68,7 +68,7 @@ export const joinFunction: ExprFunction = (args) => {
   return joinIds(args[0], args[1]);
 };
 
-/** The functions node programs may call: the base library plus `join`, `age` and `now`. */
+/** The functions node programs may call: the base library plus `join`, `age`, `waited` and `now`. */
 export function programFunctions(at: { now: () => number; pairById: (id: string) => PairRecord | undefined }): Record<string, ExprFunction> {
   return Object.assign(Object.create(null) as Record<string, ExprFunction>, baseFunctions, {
     join: joinFunction,
@@ -88,6 +88,15 @@ export function programFunctions(at: { now: () => number; pairById: (id: string)
         return at.now() - ((a as ValueRecord).born as number);
       }
       throw new Error('age takes a pair (a bound name or a pair id)');
+    },
+    // the record of a bound pair carries no stage-entry time: it is read from the held half
+    waited: (args) => {
+      const a = args[0];
+      const id = typeof a === 'string' ? a : a !== null && typeof a === 'object' && !Array.isArray(a) ? (a as ValueRecord).id : undefined;
+      if (typeof id !== 'string') throw new Error('waited takes a pair (a bound name or a pair id)');
+      const rec = at.pairById(id);
+      if (!rec) throw new Error(`waited: this node no longer holds pair "${id}"`);
+      return at.now() - rec.entered;
     },
   } satisfies Record<string, ExprFunction>);
 }

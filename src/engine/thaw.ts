@@ -16,7 +16,7 @@ function copyPair(p: PairRecord): PairRecord {
     notes = {};
     for (const k in p.notes) notes[k] = p.notes[k];
   }
-  return { qubit: p.qubit, id: p.id, partner: p.partner, stage: p.stage, born: p.born, order: p.order, link: p.link, notes };
+  return { qubit: p.qubit, id: p.id, partner: p.partner, stage: p.stage, born: p.born, entered: p.entered, order: p.order, link: p.link, notes };
 }
 
 function copyRecord<T>(o: Record<string, T>): Record<string, T> {
@@ -137,7 +137,7 @@ function shareMap<K, T>(base: Map<K, T>, next: Map<K, T>, same: (a: T, b: T) => 
 }
 
 const samePair = (a: PairRecord, b: PairRecord): boolean =>
-  a.qubit === b.qubit && a.id === b.id && a.partner === b.partner && a.stage === b.stage && a.born === b.born && a.order === b.order && a.link === b.link && sameEntries(a.notes, b.notes);
+  a.qubit === b.qubit && a.id === b.id && a.partner === b.partner && a.stage === b.stage && a.born === b.born && a.entered === b.entered && a.order === b.order && a.link === b.link && sameEntries(a.notes, b.notes);
 
 /**
  * A node's pairs with each record replaced by base's record of the same qubit when they are

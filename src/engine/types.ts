@@ -26,6 +26,11 @@ export interface PairRecord {
   stage: string;
   /** Time the half arrived at this node (ns); age is measured from here. */
   born: number;
+  /**
+   * Time the half entered its current stage at this node (ns): its arrival, then each
+   * `stage` step. `min_wait`, `max_wait` and `waited()` measure from here. Not part of digests.
+   */
+  entered: number;
   /** Arrival order at this node, for `pick` ties. */
   order: number;
   /** The link whose slot the half occupies. */

@@ -25,6 +25,8 @@ interface RawHave {
   pick?: 'oldest' | 'newest';
   min_age?: string;
   max_age?: string;
+  min_wait?: string;
+  max_wait?: string;
 }
 interface RawGot {
   from?: string;
@@ -56,7 +58,7 @@ export function guardBindings(rb: RuleBuild, raw: RawItem, path: Path): Binding[
 
 function buildHaveId(rb: RuleBuild, h: RawHave, path: Path, scope: RuleScope, pos: SourcePos): HaveIdGuard | undefined {
   const { ctx } = rb;
-  for (const key of ['partner', 'count', 'pick', 'min_age', 'max_age'] as const) {
+  for (const key of ['partner', 'count', 'pick', 'min_age', 'max_age', 'min_wait', 'max_wait'] as const) {
     if (h[key] !== undefined) {
       ctx.error(
         path,
@@ -95,12 +97,19 @@ function buildHave(rb: RuleBuild, h: RawHave, path: Path, scope: RuleScope, pos:
   }
   const minAgeNs = h.min_age === undefined ? undefined : ctx.unit([...path, 'min_age'], h.min_age, parseDuration);
   const maxAgeNs = h.max_age === undefined ? undefined : ctx.unit([...path, 'max_age'], h.max_age, parseDuration);
-  if (minAgeNs !== undefined && maxAgeNs !== undefined && minAgeNs > maxAgeNs) {
-    ctx.error([...path, 'max_age'], {
-      code: 'schema',
-      message: `max_age (${h.max_age}) is less than min_age (${h.min_age}), so no pair can ever match`,
-      fix: 'swap them, or make max_age at least min_age',
-    });
+  const minWaitNs = h.min_wait === undefined ? undefined : ctx.unit([...path, 'min_wait'], h.min_wait, parseDuration);
+  const maxWaitNs = h.max_wait === undefined ? undefined : ctx.unit([...path, 'max_wait'], h.max_wait, parseDuration);
+  for (const [lo, hi, loText, hiText, what] of [
+    [minAgeNs, maxAgeNs, h.min_age, h.max_age, 'age'],
+    [minWaitNs, maxWaitNs, h.min_wait, h.max_wait, 'wait'],
+  ] as const) {
+    if (lo !== undefined && hi !== undefined && lo > hi) {
+      ctx.error([...path, `max_${what}`], {
+        code: 'schema',
+        message: `max_${what} (${hiText}) is less than min_${what} (${loText}), so no pair can ever match`,
+        fix: `swap them, or make max_${what} at least min_${what}`,
+      });
+    }
   }
   const partner = rb.ex.expr([...path, 'partner'], h.partner);
   scope.reads(partner, [...path, 'partner']);
@@ -114,6 +123,8 @@ function buildHave(rb: RuleBuild, h: RawHave, path: Path, scope: RuleScope, pos:
     pick: h.pick ?? 'oldest',
     ...(minAgeNs === undefined ? {} : { minAgeNs }),
     ...(maxAgeNs === undefined ? {} : { maxAgeNs }),
+    ...(minWaitNs === undefined ? {} : { minWaitNs }),
+    ...(maxWaitNs === undefined ? {} : { maxWaitNs }),
     pos,
   };
 }

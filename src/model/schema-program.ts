@@ -63,8 +63,10 @@ function schemas(mode: Mode) {
       count: count('How many pairs are needed (default 1).').optional(),
       as: names('Names bound to the pairs, in pick order').optional(),
       pick: z.enum(['oldest', 'newest']).describe('Which pairs to take first (default oldest).').optional(),
-      min_age: durationText().optional(),
-      max_age: durationText().optional(),
+      min_age: durationText().describe('Only pairs at least this old at this node (since their half arrived), e.g. "3 ms".').optional(),
+      max_age: durationText().describe('Only pairs at most this old at this node (since their half arrived).').optional(),
+      min_wait: durationText().describe('Only pairs that have been in their current stage at least this long (arrival counts as entering link), e.g. "3 ms".').optional(),
+      max_wait: durationText().describe('Only pairs that have been in their current stage at most this long.').optional(),
     },
     'Free pairs held with a partner (or the pair with a given id).',
   );

@@ -50,7 +50,7 @@ export type Pick = 'oldest' | 'newest';
 
 export type Guard = HaveGuard | HaveIdGuard | GotGuard | CheckGuard;
 
-/** `have: {partner, stage, count, as, pick, min_age, max_age}`. */
+/** `have: {partner, stage, count, as, pick, min_age, max_age, min_wait, max_wait}`. */
 export interface HaveGuard {
   readonly kind: 'have';
   readonly partner: Expr;
@@ -61,6 +61,9 @@ export interface HaveGuard {
   readonly pick: Pick;
   readonly minAgeNs?: number;
   readonly maxAgeNs?: number;
+  /** Bounds on the time since the pair entered its current stage at this node (`min_wait`, `max_wait`). */
+  readonly minWaitNs?: number;
+  readonly maxWaitNs?: number;
   readonly pos: SourcePos;
 }
 

@@ -6,6 +6,7 @@ import { evaluate, formatValue } from '../expr/index.js';
 import type { ExprNode, Value } from '../expr/types.js';
 import { formatDuration } from '../model/units.js';
 import type { Guard, Rule } from '../model/types.js';
+import { slotStarvation } from './explain-slots.js';
 import { shortPairId } from './ids.js';
 import { evalIn, evalNode, gotCandidates, haveCandidates, matchRule, type DeepestFailure, type MatchContext } from './match.js';
 import type { Net } from './net.js';
@@ -120,7 +121,7 @@ function inflightNote(w: World, to: string, kind: string, from: string | undefin
 }
 
 /** Why the guard at `i` fails, given the bindings in force when the search reached it. */
-function reasonFor(ctx: MatchContext, rule: Rule, i: number): string {
+function reasonFor(net: Net, ctx: MatchContext, rule: Rule, i: number): string {
   const g = rule.when[i];
   const pairs = Object.values(ctx.w.nodes[ctx.node].pairs);
   const where = { node: ctx.node, rule: rule.name };
@@ -152,6 +153,9 @@ function reasonFor(ctx: MatchContext, rule: Rule, i: number): string {
       if (other.length) text += `; with ${partner} in other stages: ${other.map((p) => `${shortPairId(p.id)} (${p.stage})`).join(', ')}`;
       const taken = pairs.filter((p) => p.partner === partner && p.stage === g.stage && used.has(p.qubit));
       if (taken.length) text += `; ${list(taken.map((p) => p.id))} already bound by an earlier guard`;
+      // the root cause when no pair can come: the link to the partner has no free slot at an end
+      const starved = slotStarvation(net, ctx.w, ctx.node, partner);
+      if (starved) text += `; ${starved}`;
       return text;
     }
     case 'have-id': {
@@ -223,7 +227,7 @@ export function explainRule(net: Net, w: World, node: string, rule: Rule): RuleE
     if (ready) reason = 'all guards hold';
     else {
       restore(scope.bindings, deepest.value!.bound);
-      reason = reasonFor(ctx, rule, deepest.value!.guard);
+      reason = reasonFor(net, ctx, rule, deepest.value!.guard);
     }
   } catch (e) {
     ready = false;

@@ -1,6 +1,8 @@
 /** Stall detection and the stall report: what each waiting rule still waits for. */
 import { describe, expect, it } from 'vitest';
+import { explainRule } from '../../src/engine/index.js';
 import { runHeadless } from '../../src/session/run.js';
+import { rulesView } from '../../src/tui/views/rules.js';
 import { runCli } from '../helpers/run-cli.js';
 import { DISAGREE_NET, engineFrom } from './scenarios.js';
 
@@ -35,5 +37,56 @@ describe('a purification whose ends keep different pairs', () => {
     expect(res.code).toBe(1);
     expect(res.stdout).toContain('stalled; waiting rules:');
     expect(res.stdout).toContain('kiln.conclude: waits for a "parity" message from weir about pair kiln~weir#1');
+  });
+});
+
+describe('a stall caused by a link whose slots are all held', () => {
+  // a parks each half in "held", where no rule takes it; b delivers its halves at once
+  const NET = `format: bellstep/program-set@1
+nodes:
+  - {id: alder, qubits: 1}
+  - {id: birch, qubits: 1}
+links:
+  - {ends: [alder, birch], length: 2 km, slots: 1}
+programs:
+  alder:
+    rules:
+      - name: use
+        when: [{have: {partner: birch, stage: ready, as: p}}]
+        do: [{deliver: p}]
+      - name: park
+        when: [{have: {partner: birch, as: p}}]
+        do: [{stage: {pair: p, to: held}}]
+  birch:
+    rules:
+      - name: hand-over
+        when: [{have: {partner: alder, as: q}}]
+        do: [{deliver: q}]
+`;
+
+  it('names the full link, the end whose slots are held, and what holds each slot since when', () => {
+    const r = runHeadless(engineFrom(NET), { seed: 1 });
+    expect(r.stop.reason).toBe('stall');
+    const use = r.summary.stall!.alder.find((e) => e.rule === 'use')!;
+    // the herald reaches both ends 5 us after emission (1 km to the midpoint at 200,000 km/s)
+    expect(use.reason).toBe(
+      'waits for a pair with birch in stage "ready"; holds none; with birch in other stages: #1 (held); ' +
+        'link alder~birch makes no new pairs: every slot at alder is held (1 of 1: alder~birch#1 in stage "held" since 5 us)',
+    );
+  });
+
+  it('says the same in the rules pane', () => {
+    const engine = engineFrom(NET);
+    const r = runHeadless(engine, { seed: 1 });
+    const why = explainRule(engine.net, r.world, 'alder', engine.net.rules.get('alder')![0]);
+    expect(why.summary).toBe(r.summary.stall!.alder.find((e) => e.rule === 'use')!.reason);
+    const lines = rulesView([{ ...why, line: 10, firedNow: false, lint: [] } as never], 'alder', 200).lines.map((l) => l.map((s) => s.text).join(''));
+    expect(lines.join(' ').replace(/\s+/g, ' ')).toContain('link alder~birch makes no new pairs: every slot at alder is held (1 of 1: alder~birch#1 in stage "held" since 5 us)');
+  });
+
+  it('names both ends when both are full, as in the stalled purification', () => {
+    const r = runHeadless(engineFrom(DISAGREE_NET), { seed: 1 });
+    const start = r.summary.stall!.kiln.find((e) => e.rule === 'start')!;
+    expect(start.reason).toMatch(/; link kiln~weir makes no new pairs: every slot at kiln is held \(2 of 2: kiln~weir#1 in stage "waiting" since [\d.]+ \w+, kiln~weir#3 in stage "link" since [\d.]+ \w+\), and every slot at weir is held \(2 of 2: kiln~weir#2 in stage "waiting"/);
   });
 });

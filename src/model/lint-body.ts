@@ -114,27 +114,54 @@ function loopFinding(rule: Rule, noise: NoiseModel | undefined): Finding | undef
   );
 }
 
+/** The names a rule's guards bind, checking the guards' expressions on the way. */
+function guardEnv(rule: Rule, kinds: ExprKinds, nodeIds: ReadonlySet<string>): Map<string, Bound> {
+  const env = new Map<string, Bound>();
+  for (const g of rule.when) {
+    if (g.kind === 'have') {
+      kinds.expect(g.partner, env, 'node', '"partner"');
+      for (const n of g.as) env.set(n, { kind: 'pair' });
+    } else if (g.kind === 'have-id') {
+      kinds.expect(g.id, env, 'id', '"id"');
+      if (g.as) env.set(g.as, { kind: 'pair' });
+    } else if (g.kind === 'got') {
+      kinds.expect(g.from, env, 'node', '"from"');
+      const from = g.from && g.from.compiled.ast.type === 'name' && nodeIds.has(g.from.compiled.ast.name) ? g.from.compiled.ast.name : undefined;
+      if (g.as) env.set(g.as, { kind: 'message', msgKind: g.msgKind, ...(from ? { from } : {}) });
+    } else kinds.expect(g.expr, env, 'truth', 'the check');
+  }
+  return env;
+}
+
+/** First pass: what the data values of every send are, so that `m.z` can be known to hold text. */
+function recordSends(steps: readonly Step[], env: Map<string, Bound>, kinds: ExprKinds, fields: FieldIndex): void {
+  for (const s of steps) {
+    if (s.kind === 'if') {
+      recordSends(s.then, new Map(env), kinds, fields);
+      recordSends(s.else, new Map(env), kinds, fields);
+      continue;
+    }
+    if (s.kind === 'send') fields.recordSend(s, new Map(Object.entries(s.data).map(([k, e]) => [k, kinds.kind(e, e.compiled.ast, env)])));
+    if (s.kind === 'measure' && s.as) env.set(s.as, { kind: 'bit' });
+    if (s.kind === 'bell_measure') for (const n of s.as) env.set(n, { kind: 'bit' });
+  }
+}
+
 /** Every finding about rule bodies: pairs used after they left, fields and values that cannot be, loops. */
 export function lintBodies(ps: ProgramSet, facts: Facts, noise?: NoiseModel): Finding[] {
   const fields = new FieldIndex(ps, facts);
   const out: Finding[] = [];
+  // the first pass reports nothing: its findings are those of the second
+  for (const program of Object.values(ps.programs)) {
+    for (const rule of program.rules) {
+      const quiet = new ExprKinds(fields, facts.nodeIds, rule);
+      recordSends(rule.do, guardEnv(rule, quiet, facts.nodeIds), quiet, fields);
+    }
+  }
   for (const program of Object.values(ps.programs)) {
     for (const rule of program.rules) {
       const kinds = new ExprKinds(fields, facts.nodeIds, rule);
-      const env = new Map<string, Bound>();
-      for (const g of rule.when) {
-        if (g.kind === 'have') {
-          kinds.expect(g.partner, env, 'node', '"partner"');
-          for (const n of g.as) env.set(n, { kind: 'pair' });
-        } else if (g.kind === 'have-id') {
-          kinds.expect(g.id, env, 'id', '"id"');
-          if (g.as) env.set(g.as, { kind: 'pair' });
-        } else if (g.kind === 'got') {
-          kinds.expect(g.from, env, 'node', '"from"');
-          const from = g.from && g.from.compiled.ast.type === 'name' && facts.nodeIds.has(g.from.compiled.ast.name) ? g.from.compiled.ast.name : undefined;
-          if (g.as) env.set(g.as, { kind: 'message', msgKind: g.msgKind, ...(from ? { from } : {}) });
-        } else kinds.expect(g.expr, env, 'truth', 'the check');
-      }
+      const env = guardEnv(rule, kinds, facts.nodeIds);
       new BodyCheck(rule, kinds, out).block(rule.do, env, new Map());
       out.push(...kinds.out);
       const loop = loopFinding(rule, noise);

@@ -11,7 +11,7 @@ import { MESSAGE_FIELDS, PAIR_FIELDS } from './build-steps.js';
 import { exprPos } from './expressions.js';
 import { allSteps, finding, type Facts, type Finding } from './lint-facts.js';
 import { closest } from './suggest.js';
-import type { Expr, ProgramSet, Rule, Step } from './types.js';
+import type { Expr, ProgramSet, Rule, SendStep, Step } from './types.js';
 
 /** What a value is, as far as the text tells. */
 export type Kind = 'number' | 'string' | 'id' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
@@ -41,6 +41,27 @@ export class FieldIndex {
     const out = new Set(MESSAGE_FIELDS);
     for (const s of senders) for (const k of Object.keys(s.step.data)) out.add(k);
     return out;
+  }
+
+  /** What each send's data values are, as far as the text tells (recorded by a first pass). */
+  private readonly dataKinds = new Map<SendStep, Map<string, Kind>>();
+
+  /** Records what the data values of a send are. */
+  recordSend(step: SendStep, kinds: Map<string, Kind>): void {
+    this.dataKinds.set(step, kinds);
+  }
+
+  /** What a data field of a message of this kind at `node` holds, when every sender agrees; else 'any'. */
+  dataKind(msgKind: string, node: string, from: string | undefined, field: string): Kind {
+    let out: Kind | undefined;
+    for (const s of this.facts.sends) {
+      if (s.step.msgKind !== msgKind || (s.to !== undefined && s.to !== node) || (from !== undefined && s.node !== from)) continue;
+      const k = this.dataKinds.get(s.step)?.get(field);
+      if (k === undefined) continue;
+      if (out === undefined) out = k;
+      else if (out !== k) return 'any';
+    }
+    return out ?? 'any';
   }
 
   /** Fields a pair record at `node` can have: the built-in ones and every value noted there. */
@@ -146,6 +167,7 @@ export class ExprKinds {
         }
         return 'any';
       }
+      if (b?.kind === 'message' && !MESSAGE_FIELDS.includes(n.property)) return this.fields.dataKind(b.msgKind, this.rule.node, b.from, n.property);
       return FIELD_KINDS[n.property] !== undefined && !(b?.kind === 'message' && n.property === 'pair') ? FIELD_KINDS[n.property] : 'any';
     }
     if (o !== 'any') {
@@ -212,8 +234,12 @@ export class ExprKinds {
     return 'any';
   }
 
-  /** Reports a value that can never be a truth value (text, null, a record, a list). */
+  /** Reports a value that can never be a truth value (text, null, a record, a list, a number other than 0 and 1). */
   truth(e: Expr, n: ExprNode, k: Kind, what: string): void {
+    if (n.type === 'literal' && typeof n.value === 'number' && n.value !== 0 && n.value !== 1) {
+      this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is the number ${n.value}`, 'write true or false, or a comparison such as m.bit == 1');
+      return;
+    }
     if (k === 'string' || k === 'id' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {
       this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is ${WORDS[k]}`, 'compare it with something, e.g. m.ok == 1 or p.stage == \'waiting\'');
     }

@@ -94,6 +94,22 @@ describe('check finds what run would refuse', () => {
     expect((await findings(text)).find((x) => x.code === 'type-mismatch')?.message).toBe('"to" needs a node id, but "quai" is not a node of the network');
   });
 
+  it('a message field that every sender fills with text, used as a bit', async () => {
+    const net = SWAP_NET.replace('data: {z: zb, x: xb, peer: quay', 'data: {z: quay, x: xb, peer: quay');
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toEqual(['type-mismatch']);
+    expect(fs[0].message).toBe('"z" needs true/false (or a bit 0/1), but `m.z` is text');
+    await runRefuses(net, /"m\.z" gave "quay", not a bit/);
+  });
+
+  it('a number other than 0 and 1 as a condition', async () => {
+    const net = SWAP_NET.replace('          - deliver: p\n  quay:', '          - if: "2"\n            then: [{deliver: p}]\n            else: [{discard: p}]\n  quay:');
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toEqual(['type-mismatch']);
+    expect(fs[0].message).toBe('the condition of "if" needs true/false (or a bit 0/1), but `2` is the number 2');
+    await runRefuses(net, /"2" gave 2, not true or false/);
+  });
+
   it('a division by zero', async () => {
     const net = SWAP_NET.replace('          - deliver: p\n  quay:', '          - log: "{m.x / 0}"\n          - deliver: p\n  quay:');
     const fs = await findings(net);

@@ -1,5 +1,5 @@
 /**
- * Validated inputs for the library (FORMAT.md §11): a program set and a noise model loaded
+ * Validated inputs for the library (docs/format.md1): a program set and a noise model loaded
  * and checked once, then handed to `check`, `run`, `sweep` and `openSession`. What they
  * hold inside stays inside: a caller sees the file names, the title, the sites and the seed.
  */

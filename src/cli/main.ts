@@ -8,11 +8,14 @@ import { InputError, InputErrors } from '../model/errors.js';
 import { ProgramError } from '../engine/index.js';
 import { BreakpointError } from '../session/breakpoints.js';
 import type { CliIo } from './io.js';
-import { EXIT, type CommandSpec } from './spec.js';
+import { EXIT, REFERENCE_PAGES, type CommandSpec } from './spec.js';
 import { COMMANDS } from './commands/index.js';
 import { reportInternalError } from './crash.js';
 
 export const VERSION = '0.1.0';
+
+/** How help points at the reference, which ships in the package's docs/ folder. */
+const REFERENCE_NOTE = 'Reference (the docs/ folder of the bellstep package):';
 
 function collect(value: string, previous: string[] | undefined): string[] {
   return [...(previous ?? []), value];
@@ -24,12 +27,14 @@ function buildProgram(io: CliIo, commands: readonly CommandSpec[], result: { cod
     .version(VERSION)
     .exitOverride()
     .showHelpAfterError('(run with --help for usage)')
+    .addHelpText('after', `\n${REFERENCE_NOTE} docs/README.md`)
     .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) });
   for (const spec of commands) {
     const cmd = program
       .command(spec.name)
       .description(spec.summary)
       .exitOverride()
+      .addHelpText('after', `\n${REFERENCE_NOTE} ${REFERENCE_PAGES[spec.name] ?? 'docs/cli.md'}`)
       .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) });
     for (const a of spec.args.split(/\s+/).filter(Boolean)) cmd.argument(a);
     for (const o of spec.options) {

@@ -251,7 +251,7 @@ export function explainNode(net: Net, w: World, node: string): RuleExplanation[]
   return (net.rules.get(node) ?? []).map((r) => explainRule(net, w, node, r));
 }
 
-/** A waiting rule in a stall report (FORMAT.md §6): the failing guard and why. */
+/** A waiting rule in a stall report (docs/cli.md): the failing guard and why. */
 export interface StallEntry {
   rule: string;
   guard: number;

@@ -1,5 +1,5 @@
 /**
- * Running a rule body: the steps of FORMAT.md §1, atomically, at the node's local time,
+ * Running a rule body: the steps of docs/format.md, atomically, at the node's local time,
  * which advances with each operation's duration (sends leave when their step runs).
  */
 import { formatValue } from '../expr/index.js';
@@ -119,6 +119,8 @@ export function runSteps(ctx: BodyContext, steps: readonly Step[]): void {
         if (r2) decayTo(ctx.net, w, r2.qubit, scope.now);
         const angle = step.angle ? value(ctx, step.angle) : undefined;
         if (angle !== undefined && typeof angle !== 'number') fail(ctx, step, `angle "${step.angle!.compiled.source}" is not a number`);
+        // arithmetic can overflow to Infinity (1e308 * 10): a rotation by it means nothing
+        if (angle !== undefined && !Number.isFinite(angle)) fail(ctx, step, `angle "${step.angle!.compiled.source}" gave ${String(angle)}, not a finite number of radians`, 'keep the angle\'s arithmetic within the range of numbers');
         try {
           gate(ctx.net, w, step.op, r1.qubit, r2 ? r2.qubit : -1, angle as number | undefined, MAX_CLUSTER_QUBITS);
         } catch (e) {

@@ -26,7 +26,7 @@ export interface LinkInfo {
   readonly ends: readonly string[];
 }
 
-/** Success probability from fiber loss and detector efficiency (REFERENCES.md, fiber and links). */
+/** Success probability from fiber loss and detector efficiency (docs/physics.md, "Pair generation"). */
 export function derivedSuccess(noise: LinkNoise, lengthM: number): number {
   const s = noise.success;
   if (s.kind === 'fixed') return s.p;
@@ -38,7 +38,7 @@ export function derivedSuccess(noise: LinkNoise, lengthM: number): number {
     // Barrett & Kok, Phys. Rev. A 71, 060310(R) (2005): p = 1/2 eta_arm^2 eta_det^2
     return 0.5 * etaArm * etaArm * etaDet * etaDet;
   }
-  // single-click: p = 2 p_emit eta_arm eta_det (a demo model, REFERENCES.md)
+  // single-click: p = 2 p_emit eta_arm eta_det (a demo model, docs/physics.md)
   return Math.min(1, 2 * (s.brightState ?? 0) * etaArm * etaDet);
 }
 

@@ -13,7 +13,7 @@ import { Bindings, RuleScope } from './scope.js';
 import { heldHalf } from './pair-state.js';
 import type { EngineEvent, FireRecord, World } from './types.js';
 
-/** A node that fires more than this many times within one event is in a rule loop (FORMAT.md §1). */
+/** A node that fires more than this many times within one event is in a rule loop (docs/format.md). */
 export const RULE_LOOP_LIMIT = 1000;
 
 /** Schedules a wake-up for a node at time t, unless one at or before t is already pending. */

@@ -110,7 +110,7 @@ export interface LinkState {
   fullNs: number;
 }
 
-/** The true state of a pair whose two halves were both delivered (FORMAT.md §4). */
+/** The true state of a pair whose two halves were both delivered (docs/physics.md, "Delivery"). */
 export interface DeliveryRecord {
   id: string;
   ends: [string, string];

@@ -1,4 +1,4 @@
-/** The expression language of bellstep: parse once, evaluate safely (FORMAT.md §1 "Expressions"). */
+/** The expression language of bellstep: parse once, evaluate safely (docs/expressions.md). */
 export type { Compiled, ExprFunction, ExprNode, Scope, Template, Value, ValueRecord } from './types.js';
 export { ExprError } from './errors.js';
 export { parseExpr, MAX_DEPTH } from './parser.js';

@@ -1,4 +1,4 @@
-/** Recursive-descent parser for the expression language (FORMAT.md §1 "Expressions"). */
+/** Recursive-descent parser for the expression language (docs/expressions.md). */
 import { ExprError, lineColOf } from './errors.js';
 import { lex, type Token } from './lexer.js';
 import { compileExpr } from './compile.js';

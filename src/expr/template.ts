@@ -1,4 +1,4 @@
-/** Log-line templates: literal text with `{expr}` holes (FORMAT.md §1, the `log` step). */
+/** Log-line templates: literal text with `{expr}` holes (docs/expressions.md, "Log lines"). */
 import { ExprError } from './errors.js';
 import { lex } from './lexer.js';
 import { parseRange } from './parser.js';

@@ -1,4 +1,4 @@
-/** Public types of the expression language (FORMAT.md §1 "Expressions"). */
+/** Public types of the expression language (docs/expressions.md). */
 
 /** A value an expression can produce or read. Records are plain frozen objects. */
 export type Value = number | string | boolean | null | readonly Value[] | ValueRecord;

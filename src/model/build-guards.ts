@@ -1,4 +1,4 @@
-/** Typed guards from validated YAML, with the binding rules of FORMAT.md §1. */
+/** Typed guards from validated YAML, with the binding rules of docs/format.md. */
 import type { Binding, RoleParams, RuleScope } from './bindings.js';
 import type { ExprCompiler } from './expressions.js';
 import type { FileCtx } from './file-ctx.js';

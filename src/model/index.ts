@@ -15,3 +15,4 @@ export { PROGRAM_SET_FORMAT } from './schema-program.js';
 export { NOISE_FORMAT } from './schema-noise.js';
 export { editDistance, closest, didYouMean } from './suggest.js';
 export { plural, article } from './words.js';
+export { FINDING_CODES, type FindingCode } from './lint-codes.js';

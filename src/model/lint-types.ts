@@ -73,6 +73,33 @@ export class FieldIndex {
 // a pair id ("mill~quay#3") is text that is never a node id: node ids have no "~"
 const FIELD_KINDS: Readonly<Record<string, Kind>> = { id: 'id', partner: 'string', stage: 'string', age: 'number', born: 'number', kind: 'string', from: 'string', to: 'string', sent: 'number' };
 
+/** The value of an arithmetic expression made of number literals only, else undefined. */
+function constant(n: ExprNode): number | undefined {
+  if (n.type === 'literal') return typeof n.value === 'number' ? n.value : undefined;
+  if (n.type === 'unary' && n.op !== '!') {
+    const v = constant(n.argument);
+    return v === undefined ? undefined : n.op === '-' ? -v : v;
+  }
+  if (n.type !== 'binary') return undefined;
+  const a = constant(n.left);
+  const b = constant(n.right);
+  if (a === undefined || b === undefined) return undefined;
+  switch (n.op) {
+    case '+':
+      return a + b;
+    case '-':
+      return a - b;
+    case '*':
+      return a * b;
+    case '/':
+      return b === 0 ? undefined : a / b;
+    case '%':
+      return b === 0 ? undefined : a % b;
+    default:
+      return undefined;
+  }
+}
+
 /** A pair id is text, except where a node id is needed. */
 const text = (k: Kind): Kind => (k === 'id' ? 'string' : k);
 
@@ -184,6 +211,9 @@ export class ExprKinds {
     const isAny = (k: Kind) => k === 'any';
     switch (n.op) {
       case '+':
+        if (a === 'number' && b === 'number' && !Number.isFinite(constant(n) ?? 0)) {
+          this.report(e, n, 'number-overflow', `\`${this.text(e, n)}\` is too large a number to hold (it gives ${constant(n)})`, 'keep the arithmetic within about 1e308');
+        }
         if (!isAny(a) && !isAny(b) && !((a === 'number' && b === 'number') || (a === 'string' && b === 'string'))) bad('two numbers or two texts');
         else if ((isAny(a) && !['number', 'string', 'any'].includes(b)) || (isAny(b) && !['number', 'string', 'any'].includes(a))) bad('two numbers or two texts');
         return a === 'string' || b === 'string' ? 'string' : a === 'number' && b === 'number' ? 'number' : 'any';
@@ -194,6 +224,8 @@ export class ExprKinds {
         if ((!isAny(a) && a !== 'number') || (!isAny(b) && b !== 'number')) bad('two numbers');
         else if ((n.op === '/' || n.op === '%') && n.right.type === 'literal' && n.right.value === 0) {
           this.report(e, n, 'division-by-zero', `\`${this.text(e, n)}\` divides by zero`, 'divide by a number other than 0');
+        } else if (!Number.isFinite(constant(n) ?? 0)) {
+          this.report(e, n, 'number-overflow', `\`${this.text(e, n)}\` is too large a number to hold (it gives ${constant(n)})`, 'keep the arithmetic within about 1e308');
         }
         return 'number';
       case '<':

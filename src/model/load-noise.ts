@@ -1,4 +1,4 @@
-/** Loads a noise model (`*.noise.yaml`, FORMAT.md §2), merging per-link and per-node settings over the defaults. */
+/** Loads a noise model (`*.noise.yaml`, docs/noise.md), merging per-link and per-node settings over the defaults. */
 import type { z } from 'zod';
 import { FileCtx } from './file-ctx.js';
 import { InputErrors, type InputError } from './errors.js';

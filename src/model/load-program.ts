@@ -1,4 +1,4 @@
-/** Loads a program set (`*.net.yaml`, FORMAT.md §1) into the typed value of types.ts. */
+/** Loads a program set (`*.net.yaml`, docs/format.md) into the typed value of types.ts. */
 import { CONSTANTS } from '../expr/index.js';
 import type { RuleBuild } from './build-guards.js';
 import { buildRule } from './build-rule.js';
@@ -107,7 +107,7 @@ function buildPrograms(ctx: FileCtx, raw: RawProgramSet, declared: ReadonlySet<s
       ctx.error(['programs'], { code: 'reference', message: `unknown node "${node}"${didYouMean(node, ids)}`, fix: 'programs are keyed by node ids declared under "nodes"' }, node);
       continue;
     }
-    // a node's roles come first, then its own rules (FORMAT.md §1 "Roles")
+    // a node's roles come first, then its own rules (docs/format.md, "Roles")
     const rules = expandUses(ctx, node, prog.use ?? [], roles, nodeIds);
     const at = new Map<Rule, number>();
     (prog.rules ?? []).forEach((r, i) => {

@@ -1,5 +1,5 @@
 /**
- * Roles (FORMAT.md §1 "Roles"). A role's rules are checked once as written, with its
+ * Roles (docs/format.md, "Roles"). A role's rules are checked once as written, with its
  * parameters standing for node ids. Then, for every node that plays the role, they are built
  * again with that node's values put into the text of each expression, so an expanded rule is
  * exactly what the same rule written out by hand would be. Each expanded rule keeps where it

@@ -1,4 +1,4 @@
-/** The shape of a noise model (FORMAT.md §2) as zod schemas, for validation and JSON Schema alike. */
+/** The shape of a noise model (docs/noise.md) as zod schemas, for validation and JSON Schema alike. */
 import { z } from 'zod';
 import { NODE_ID_RE, LABEL_RE } from './schema-program.js';
 import { DURATION_PATTERN } from './units.js';
@@ -91,26 +91,41 @@ function schemas(mode: Mode) {
     .regex(attemptRe, { error: (iss) => encodeIssue({ m: `expected "fiber" or a duration such as "10 us", got ${describeValue(iss.input)}`, f: ATTEMPT_FIX }) })
     .describe('Time between attempts: "fiber" (link length over the fiber speed) or a duration.');
   const link = obj({ pair: pair.optional(), success: success.optional(), attempt_period: attempt.optional() }, 'Pair generation on a link.');
-  const memory = obj({ t1: durationText().optional(), t2: durationText().optional() }, 'Memory decay times; leave one out for no such decay.');
-  const gate = obj({ depolarizing: probability('Depolarizing probability').optional(), duration: durationText().optional() });
-  const readout = obj({ flip: probability('Readout flip probability').optional(), duration: durationText().optional() });
-  const gates = obj({ single: gate.optional(), two: gate.optional(), measure: readout.optional() }, 'Gate and measurement errors and durations.');
+  const memory = obj(
+    {
+      t1: durationText().describe('Energy relaxation time T1 (amplitude damping), more than 0.').optional(),
+      t2: durationText().describe('Coherence time T2 (dephasing), more than 0 and at most 2·T1.').optional(),
+    },
+    'Memory decay times; leave one out for no such decay.',
+  );
+  const gate = (what: string) =>
+    obj({ depolarizing: probability('Depolarizing probability after each gate').optional(), duration: durationText().describe(`How long each ${what} gate takes (default 0).`).optional() }, `${what[0].toUpperCase()}${what.slice(1)} gates.`);
+  const readout = obj(
+    { flip: probability('Probability that a measured bit comes out flipped').optional(), duration: durationText().describe('How long a measurement takes (default 0).').optional() },
+    'Measurements.',
+  );
+  const gates = obj({ single: gate('one-qubit').optional(), two: gate('two-qubit').optional(), measure: readout.optional() }, 'Gate and measurement errors and durations.');
   const classical = obj(
-    { speed: speedText().optional(), loss: probability('Message loss probability').optional(), extra_delay: durationText().optional() },
+    {
+      speed: speedText().describe('Speed of messages and heralds in fiber, more than 0 (default 200000 km/s).').optional(),
+      loss: probability('Message loss probability').optional(),
+      extra_delay: durationText().describe('Added to every message delay (default 0).').optional(),
+    },
     'Classical messages.',
   );
   const match = { from: nodeId().optional(), to: nodeId().optional(), kind: word(LABEL_RE, 'a message kind', '"bits"').optional() };
+  const faultBy = durationText().describe('How much later matching messages arrive.');
   const fault = keyed(
     mode,
     'fault',
     {
       drop: obj({ ...match, nth: count('Which matching message to drop (1 = the first).') }, 'Drop the nth matching message.'),
-      delay: obj({ ...match, by: durationText() }, 'Delay matching messages.'),
+      delay: obj({ ...match, by: faultBy }, 'Delay matching messages.'),
     },
     {},
     'A deterministic fault.',
   );
-  const defaults = obj({ link: link.optional(), memory: memory.optional(), gates: gates.optional(), classical: classical.optional() });
+  const defaults = obj({ link: link.optional(), memory: memory.optional(), gates: gates.optional(), classical: classical.optional() }, 'Settings for every link and node that has none of its own.');
   const nodeNoise = obj({ memory: memory.optional(), gates: gates.optional() });
   const seed = z.int().min(0).describe('Seed of the random generator (the CLI\'s --seed overrides it).');
   const noise = obj(

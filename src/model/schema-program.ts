@@ -1,5 +1,5 @@
 /**
- * The shape of a program set (FORMAT.md §1) as zod schemas. They check structure only;
+ * The shape of a program set (docs/format.md) as zod schemas. They check structure only;
  * meaning (references, bindings, units to integers) is checked while building the typed
  * value. The same factory serves validation and the published JSON Schema.
  */
@@ -25,7 +25,7 @@ export interface RawRule {
   readonly when: readonly RawItem[];
   readonly do: readonly RawItem[];
 }
-/** A role (FORMAT.md §1 "Roles"): a named rule list with parameters. */
+/** A role (docs/format.md, "Roles"): a named rule list with parameters. */
 export interface RawRole {
   readonly params?: readonly string[];
   readonly rules: readonly RawRule[];
@@ -59,7 +59,7 @@ function schemas(mode: Mode) {
     {
       partner: expr('The node the pairs are shared with').optional(),
       id: expr('The shared pair id to find (instead of partner)').optional(),
-      stage: label('a stage name').optional(),
+      stage: label('a stage name').describe('The stage the pairs must be in (default link, where generated pairs arrive).').optional(),
       count: count('How many pairs are needed (default 1).').optional(),
       as: names('Names bound to the pairs, in pick order').optional(),
       pick: z.enum(['oldest', 'newest']).describe('Which pairs to take first (default oldest).').optional(),
@@ -73,8 +73,8 @@ function schemas(mode: Mode) {
   const got = obj(
     {
       from: expr('The sending node (left out: any node)').optional(),
-      kind: label('a message kind'),
-      as: bindName().optional(),
+      kind: label('a message kind').describe('The message kind to wait for.'),
+      as: bindName().describe('The name the message is bound to; it is consumed when the rule fires.').optional(),
     },
     'A message of this kind in the inbox.',
   );
@@ -87,32 +87,32 @@ function schemas(mode: Mode) {
     op: z.enum(['x', 'y', 'z', 'h', 's', 'sdg', 't', 'rx', 'ry', 'rz', 'cnot', 'cz', 'swap']).describe('The gate.'),
     on: z.union([pairName('The qubit'), z.array(pairName('A qubit')).min(1)]).describe('A pair name, or [control, target] for two-qubit gates.'),
     angle: value('Rotation angle in radians (rx, ry, rz only)').optional(),
-  });
+  }, "A gate on this node's half of a pair (one pair) or halves (two pairs).");
   const measure = obj({
     on: pairName('The pair to measure'),
     basis: z.enum(['z', 'x', 'y']).describe('Measurement basis (default z).').optional(),
-    as: bindName().optional(),
-  });
+    as: bindName().describe('The name the measured bit (0 or 1) is bound to.').optional(),
+  }, "A measurement of this node's half; the half is freed.");
   const bellMeasure = obj({
     on: z.tuple([pairName('First pair'), pairName('Second pair')]).describe('The two local halves to measure.'),
     as: z.tuple([bindName(), bindName()]).describe('Names for [Z bit, X bit].'),
-  });
+  }, 'A Bell-state measurement of two local halves: the far ends are then entangled with each other.');
   const dataMap = (what: string) => z.record(z.string(), value('A value')).describe(what);
   const send = obj({
     to: expr('The destination node'),
-    kind: label('a message kind'),
+    kind: label('a message kind').describe('The message kind.'),
     pair: value('The shared pair id the message is about').optional(),
     data: dataMap('Named values carried by the message.').optional(),
-  });
-  const stage = obj({ pair: pairName('The pair'), to: label('a stage name') });
-  const note = obj({ pair: pairName('The pair'), set: dataMap('Values stored on the pair record.') });
-  const correct = obj({ pair: pairName('The pair'), x: value('1 to apply X').optional(), z: value('1 to apply Z').optional() });
-  const rebind = obj({ pair: pairName('The pair'), partner: expr('The new partner').optional(), id: value('The new shared id').optional() });
+  }, 'A classical message to a node, over the shortest fiber path.');
+  const stage = obj({ pair: pairName('The pair'), to: label('a stage name').describe('The stage to move the pair to.') }, 'Moves a held pair to another stage, which restarts its stage timer.');
+  const note = obj({ pair: pairName('The pair'), set: dataMap('Values stored on the pair record.') }, "Stores values on this node's record of a pair, read later as PAIR.key.");
+  const correct = obj({ pair: pairName('The pair'), x: value('1 to apply X').optional(), z: value('1 to apply Z').optional() }, "Applies X if x is 1, then Z if z is 1, to this node's half.");
+  const rebind = obj({ pair: pairName('The pair'), partner: expr('The new partner').optional(), id: value('The new shared id').optional() }, "Updates this node's record of a pair after a swap: new partner and new shared id.");
   const ifStep = obj({
     if: value('The condition'),
     then: stepList().describe('Steps run when the condition holds.'),
     else: stepList().describe('Steps run otherwise.').optional(),
-  });
+  }, 'A branch: the steps under then when the condition holds, else those under else.');
   const step: z.ZodType = keyed(
     mode,
     'step',

@@ -1,6 +1,6 @@
 /**
  * Typed program set and noise model, as produced by model/ from the YAML files
- * (FORMAT.md §1–§2). Every user-facing element keeps its source position so that engine,
+ * (docs/format.md and docs/noise.md). Every user-facing element keeps its source position so that engine,
  * session and lint messages can point at file:line:col.
  */
 import type { Compiled } from '../expr/index.js';
@@ -206,7 +206,7 @@ export interface Rule {
   readonly from?: RuleOrigin;
 }
 
-/** Where a rule that came from a role was written, and with what parameter values (FORMAT.md §1 "Roles"). */
+/** Where a rule that came from a role was written, and with what parameter values (docs/format.md, "Roles"). */
 export interface RuleOrigin {
   readonly role: string;
   /** Index of the rule in the role's list. */

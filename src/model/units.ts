@@ -16,6 +16,9 @@ const DURATION_UNITS: Readonly<Record<string, bigint>> = {
   min: 60_000_000_000n,
 };
 
+/** The units a duration may be written in. */
+export const DURATION_UNIT_NAMES: readonly string[] = Object.keys(DURATION_UNITS);
+
 /** Source text of the duration pattern, shared with the JSON Schema. */
 export const DURATION_PATTERN = '^\\s*[0-9]+(\\.[0-9]+)?\\s*(ns|us|µs|μs|ms|s|min)\\s*$';
 /** Source text of the length pattern. */

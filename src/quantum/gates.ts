@@ -15,7 +15,7 @@ import {
 import { H, rx, ry, Y } from './mat2.js';
 import { checkDistinct, clone, dimOf, maskOf, type Rho } from './rho.js';
 
-/** Gate names of FORMAT.md's `gate` step. */
+/** Gate names of the `gate` step (docs/format.md). */
 export type GateName = 'x' | 'y' | 'z' | 'h' | 's' | 'sdg' | 't' | 'rx' | 'ry' | 'rz' | 'cnot' | 'cz' | 'swap';
 
 const ARITY: Readonly<Record<GateName, 1 | 2>> = {

@@ -32,7 +32,7 @@ export interface DiffTotals {
   stop: string;
 }
 
-/** The object `diff --json` prints (FORMAT.md §10); a side with no event at the split is null. */
+/** The object `diff --json` prints (docs/format.md0); a side with no event at the split is null. */
 export interface DiffReport {
   format: typeof DIFF_FORMAT;
   same: boolean;

@@ -1,5 +1,5 @@
 /**
- * Breakpoints (FORMAT.md §3): a condition over the debugger functions, or an event form
+ * Breakpoints (docs/expressions.md): a condition over the debugger functions, or an event form
  * (`on fire NODE.RULE`, `on send KIND`, `on deliver`, `on discard`, `on stall`).
  * A condition hits when it becomes true (false before the event, true after it). A name
  * in a condition that is not a node id stands for any held pair id: `fidelity(p) < 0.9`

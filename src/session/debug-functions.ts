@@ -1,5 +1,5 @@
 /**
- * The debugger functions of FORMAT.md §3, for breakpoints, watches and expectations. They
+ * The debugger functions of docs/expressions.md, for breakpoints, watches and expectations. They
  * read a world (never change it) and are evaluated with the same expression language as
  * node programs.
  */
@@ -9,7 +9,7 @@ import { deliveredWith, farHalf, findDelivery, hasNext, joinFunction, quiescence
 import { bellCoefficients, fidelityPhiPlus } from '../quantum/index.js';
 import { DEBUGGER_FUNCTIONS } from '../model/index.js';
 
-/** The debugger functions (FORMAT.md §3); the model layer keeps the list, so programs are told they are for breakpoints. */
+/** The debugger functions (docs/expressions.md); the model layer keeps the list, so programs are told they are for breakpoints. */
 export const DEBUG_FUNCTION_NAMES = DEBUGGER_FUNCTIONS;
 
 function str(name: string, v: Value | undefined, what: string): string | undefined {

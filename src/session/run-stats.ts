@@ -1,5 +1,5 @@
 /**
- * Run statistics (FORMAT.md §9), added to the run summary as `stats`: delivered pairs per
+ * Run statistics (docs/cli.md), added to the run summary as `stats`: delivered pairs per
  * second, the fidelity and latency of delivered pairs, and per link its generation rate
  * and the share of time its slots were full. Rates are per second of simulated time.
  */

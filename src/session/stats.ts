@@ -1,5 +1,5 @@
 /**
- * Small statistics shared by sweeps (FORMAT.md §8) and run statistics (§9): means,
+ * Small statistics shared by sweeps (docs/cli.md) and run statistics (§9): means,
  * nearest-rank percentiles and the Wilson score interval. It lives in session/ so that the
  * run summary, sweeps and reports can all import it without breaking the layer rule.
  */

@@ -1,5 +1,5 @@
 /**
- * The run summary of FORMAT.md §6: exactly its keys, no wall-clock figures and no paths,
+ * The run summary of docs/cli.md: exactly its keys, no wall-clock figures and no paths,
  * so the same inputs and seed give a byte-identical summary.
  */
 import { deliveries, eachDelivery, type DeliveryRecord, type Net, type StallEntry, type World } from '../engine/index.js';

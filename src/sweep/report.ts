@@ -1,5 +1,5 @@
 /**
- * Builds the sweep file of FORMAT.md §8 from its runs. A sweep and a merge both end here,
+ * Builds the sweep file of docs/cli.md from its runs. A sweep and a merge both end here,
  * with the runs in seed order, so the same runs give the same bytes whichever way they came.
  */
 import { spread, wilsonInterval, mean, nearestRank } from '../session/stats.js';

@@ -1,5 +1,5 @@
 /**
- * Seed ranges and shards (FORMAT.md §8): `--seeds A..B` is inclusive, and `--shard I/N`
+ * Seed ranges and shards (docs/cli.md): `--seeds A..B` is inclusive, and `--shard I/N`
  * takes the seeds whose position in the range is I−1 modulo N, so N jobs cover the range
  * once whatever its length.
  */

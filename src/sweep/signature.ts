@@ -1,5 +1,5 @@
 /**
- * Failure signatures (FORMAT.md §8): a failure with its seed-specific detail taken out, so
+ * Failure signatures (docs/cli.md): a failure with its seed-specific detail taken out, so
  * that seeds that fail the same way share one string and count as one bug. Each signature
  * comes with plain words built from the same normalised parts, so the words depend on the
  * signature alone and merged shards carry the same explanation as one whole sweep.

@@ -1,5 +1,5 @@
 /**
- * A seed sweep (FORMAT.md §8): one headless run per seed of a range or shard, on worker
+ * A seed sweep (docs/cli.md): one headless run per seed of a range or shard, on worker
  * threads, gathered into the sweep file. Every seed's result depends on the inputs and the
  * seed alone, and the file is built from the runs in seed order, so it does not depend on
  * the number of workers or on which worker ran which seed.

@@ -1,4 +1,4 @@
-/** The sweep file of FORMAT.md §8 (`sweep --json`, `merge --json`) and what workers exchange. */
+/** The sweep file of docs/cli.md (`sweep --json`, `merge --json`) and what workers exchange. */
 import type { Spread } from '../session/stats.js';
 
 export const SWEEP_FORMAT = 'bellstep/sweep@1';

@@ -1,5 +1,5 @@
 /**
- * `bellstep merge` (FORMAT.md §8): the shards of a range join into the bytes of one sweep
+ * `bellstep merge` (docs/cli.md): the shards of a range join into the bytes of one sweep
  * over it, and files that do not belong together are refused with exit 2, saying which.
  */
 import { beforeAll, describe, expect, it } from 'vitest';

@@ -1,4 +1,4 @@
-/** `bellstep run`: flags, exit codes and the JSON summary contract (FORMAT.md §5–§6). */
+/** `bellstep run`: flags, exit codes and the JSON summary contract (docs/cli.md). */
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/run-cli.js';
 import { noiseWith, purificationNet, SWAP_NET } from '../engine/scenarios.js';
@@ -13,7 +13,7 @@ const files = {
 const SUMMARY_KEYS = ['format', 'seed', 'events', 'time_ns', 'stop', 'delivered', 'fired', 'messages', 'generated', 'expectations', 'stall', 'stats'];
 
 describe('bellstep run', () => {
-  it('prints a summary with exactly the keys of FORMAT.md §6, then stats', async () => {
+  it('prints a summary with exactly the keys docs/cli.md lists, then stats', async () => {
     const r = await runCli(['run', 'pur.net.yaml', '--noise', 'pur.noise.yaml', '--events', '500', '--json'], files);
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);

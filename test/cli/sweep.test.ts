@@ -1,5 +1,5 @@
 /**
- * `bellstep sweep` end to end (FORMAT.md §5, §8): the real CLI in-process, with real worker
+ * `bellstep sweep` end to end (docs/cli.md): the real CLI in-process, with real worker
  * threads running the TypeScript sources. Small scenarios and few seeds keep it quick.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -31,7 +31,7 @@ beforeAll(async () => {
 });
 
 describe('bellstep sweep', () => {
-  it('gives the same bytes with 1 and 2 workers, with exactly the keys of FORMAT.md §8', () => {
+  it('gives the same bytes with 1 and 2 workers, with exactly the keys of the sweep file', () => {
     expect(one.code).toBe(1);
     expect(two.code).toBe(1);
     // the second also saved replays: that changes nothing in the JSON

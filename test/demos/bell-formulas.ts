@@ -1,6 +1,6 @@
 /**
  * Published formulas for the demo checks, written out here independently of the engine.
- * Bell vectors are in bellstep's order [Φ+, Φ−, Ψ+, Ψ−] (FORMAT.md).
+ * Bell vectors are in bellstep's order [Φ+, Φ−, Ψ+, Ψ−] (docs/physics.md).
  */
 export type Bell = [number, number, number, number];
 

@@ -1,6 +1,6 @@
 /**
  * End-to-end physics: whole networks run by the engine against the published formulas of
- * REFERENCES.md. The engine only simulates (density matrices, sampled outcomes); the
+ * docs/physics.md. The engine only simulates (density matrices, sampled outcomes); the
  * formulas live here, as the independent check.
  */
 import { describe, expect, it } from 'vitest';
@@ -8,7 +8,7 @@ import { runHeadless } from '../../src/session/run.js';
 import { engineFrom, noiseWith, purificationNet, SWAP_NET } from './scenarios.js';
 
 describe('two-site bit-flip purification', () => {
-  // common practice (REFERENCES.md, "Bit-flip pairs"): p = F² + (1−F)², F′ = F²/p
+  // common practice (docs/physics.md, "Formulas the tests check"): p = F² + (1−F)², F′ = F²/p
   for (const F of [0.8, 0.7, 0.9, 0.63]) {
     it(`keeps pairs of fidelity F²/(F²+(1−F)²) for F = ${F}`, () => {
       const engine = engineFrom(purificationNet(), noiseWith(`{bit_flip: ${F}}`));
@@ -20,7 +20,7 @@ describe('two-site bit-flip purification', () => {
   }
 
   it('keeps a fraction F²+(1−F)² of the rounds, within 4σ', () => {
-    const F = 0.8; // REFERENCES.md check value: p = 0.68
+    const F = 0.8; // check value (docs/physics.md): p = 0.68
     const engine = engineFrom(purificationNet(), noiseWith(`{bit_flip: ${F}}`));
     const r = runHeadless(engine, { seed: 5, maxEvents: 40000 });
     const rounds = r.summary.fired.kiln.conclude;
@@ -56,7 +56,7 @@ describe('DEJMPS with its rotations (Deutsch et al., PRL 77, 2818 (1996))', () =
   }
 
   for (const input of [
-    [0.7, 0.1, 0.15, 0.05], // REFERENCES.md check value: p = 0.625, out [0.788, 0.112, 0.052, 0.048]
+    [0.7, 0.1, 0.15, 0.05], // check value (docs/physics.md): p = 0.625, out [0.788, 0.112, 0.052, 0.048]
     [0.6, 0.2, 0.05, 0.15],
     [0.85, 0.05, 0.06, 0.04],
   ]) {
@@ -138,7 +138,7 @@ defaults:
     // each half decays from emission: the herald takes half the link (common practice: 5 us/km)
     const t = 0.2 + (km / 2) * 5e-6;
     expect(d.fidelity).toBeCloseTo((1 + Math.exp((-2 * t) / 1)) / 2, 9);
-    // REFERENCES.md check value for t = 200 ms exactly is 0.835160023
+    // check value (docs/physics.md) for t = 200 ms exactly is 0.835160023
     expect(d.fidelity).toBeCloseTo(0.835160023, 5);
   });
 

@@ -1,5 +1,5 @@
 /**
- * A plain tree-walking evaluator written from the language rules (FORMAT.md §1 and the
+ * A plain tree-walking evaluator written from the language rules (docs/expressions.md and the
  * expr brief), independently of src/expr/compile*.ts. Tests use it as an oracle for the
  * closure compiler, and the benchmark as the baseline the compiler must beat.
  */

@@ -110,6 +110,14 @@ describe('check finds what run would refuse', () => {
     await runRefuses(net, /"2" gave 2, not true or false/);
   });
 
+  it('arithmetic on literals that overflows, as an angle', async () => {
+    const net = SWAP_NET.replace('- bell_measure:', '- gate: {op: rx, on: a, angle: "1e308 * 10"}\n          - bell_measure:');
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toEqual(['number-overflow']);
+    expect(fs[0].message).toBe('`1e308 * 10` is too large a number to hold (it gives Infinity)');
+    await runRefuses(net, /angle "1e308 \* 10" gave Infinity, not a finite number of radians/);
+  });
+
   it('a division by zero', async () => {
     const net = SWAP_NET.replace('          - deliver: p\n  quay:', '          - log: "{m.x / 0}"\n          - deliver: p\n  quay:');
     const fs = await findings(net);

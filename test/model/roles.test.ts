@@ -1,5 +1,5 @@
 /**
- * Roles (FORMAT.md §1 "Roles"): a program set written with roles loads into the rules a
+ * Roles (docs/format.md, "Roles"): a program set written with roles loads into the rules a
  * person would have written out node by node, runs exactly as that twin does, and every
  * mistake in roles is an input error naming the line, the role and the node.
  */

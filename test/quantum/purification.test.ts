@@ -41,7 +41,7 @@ function purify(pair: Rho, rotate = false): { p: number; bell: Bell } {
 }
 
 describe('bit-flip purification', () => {
-  // Check values: REFERENCES.md, common practice (p = F² + (1−F)², F′ = F²/p).
+  // Check values: docs/physics.md, common practice (p = F² + (1−F)², F′ = F²/p).
   it.each([
     [0.8, 0.68, 0.941176470588],
     [0.7, 0.58, 0.844827586207],

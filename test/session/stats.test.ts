@@ -9,7 +9,7 @@ describe('Wilson score interval', () => {
   // Worked example: 3 failures in 250 runs at 95 % (z = 1.95996):
   //   p̂ = 0.012, z² = 3.84146, z²/n = 0.0153658, centre = (0.012 + 0.0076829) / 1.0153658 = 0.0193850,
   //   half = 1.95996 / 1.0153658 · √(0.012·0.988/250 + 3.84146/250000) = 1.930296 · √(6.27898e-5) = 0.0152956,
-  //   so [0.004089, 0.034681] — FORMAT.md §8's example rounds it to 0.004 and 0.035.
+  //   so [0.004089, 0.034681] — the sweep file's documented example rounds it to 0.004 and 0.035.
   it('matches the worked example of 3 failures in 250 runs', () => {
     const r = wilsonInterval(3, 250)!;
     expect(r.value).toBe(0.012);

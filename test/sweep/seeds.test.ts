@@ -1,4 +1,4 @@
-/** Seed ranges and shards (FORMAT.md §8): parsing, and N shards covering a range exactly once. */
+/** Seed ranges and shards (docs/cli.md): parsing, and N shards covering a range exactly once. */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/model/errors.js';

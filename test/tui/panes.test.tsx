@@ -62,7 +62,7 @@ describe('the debugger panes', () => {
     await press(r, c, KEY.right);
     const pair = Object.values(c.session.world().nodes.mill.pairs)[0];
     expect(pair).toBeDefined();
-    // a fresh Werner pair of parameter 0.9 has fidelity 0.9 to Φ+ (REFERENCES.md: Werner state, common practice)
+    // a fresh Werner pair of parameter 0.9 has fidelity 0.9 to Φ+ (docs/physics.md: Werner state, common practice)
     await r.until('F 0.900');
     expect(r.frame()).toMatch(/█{8,}[▏▎▍▌▋▊▉·]*\s?F 0\.900/);
     await press(r, c, KEY.tab);

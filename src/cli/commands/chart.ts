@@ -1,4 +1,4 @@
-/** `bellstep chart R.json [--from I] [--to J] -o OUT.svg`: a space-time chart of a recorded run (FORMAT.md §5). */
+/** `bellstep chart R.json [--from I] [--to J] -o OUT.svg`: a space-time chart of a recorded run (docs/cli.md). */
 import { InputError } from '../../model/errors.js';
 import { chartNote, chartOfRun } from '../../report/chart.js';
 import { loadRecordedRun } from '../../report/rerun.js';

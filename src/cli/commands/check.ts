@@ -1,4 +1,4 @@
-/** `bellstep check`: validate a program set (and noise model), then run the static analysis (FORMAT.md §5). */
+/** `bellstep check`: validate a program set (and noise model), then run the static analysis (docs/cli.md). */
 import { InputError, InputErrors } from '../../model/errors.js';
 import { check } from '../../api/check.js';
 import { loaded } from '../../api/inputs.js';

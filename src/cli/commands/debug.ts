@@ -1,5 +1,5 @@
 /**
- * `bellstep debug`: the step-through debugger in the terminal (FORMAT.md §5). Inputs come
+ * `bellstep debug`: the step-through debugger in the terminal (docs/cli.md). Inputs come
  * from the files or, with --replay, from the replay file; --at opens the cursor on an
  * event; --autoplay starts teaching mode. Without a terminal it points to `bellstep run`.
  */

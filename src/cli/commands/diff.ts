@@ -1,4 +1,4 @@
-/** `bellstep diff A.replay.json B.replay.json [--json]`: where two recorded runs part ways (FORMAT.md §5, §10). */
+/** `bellstep diff A.replay.json B.replay.json [--json]`: where two recorded runs part ways (docs/cli.md). */
 import { diffRuns, replaySide } from '../../report/diff.js';
 import { diffText } from '../../report/diff-text.js';
 import { loadRecordedRun } from '../../report/rerun.js';

@@ -1,4 +1,4 @@
-/** `bellstep merge`: joins the sweep files of shards into the file of the whole range (FORMAT.md §5, §8). */
+/** `bellstep merge`: joins the sweep files of shards into the file of the whole range (docs/cli.md). */
 import { junitXml } from '../../report/junit.js';
 import { mergeSweeps, parseSweepFile, type NamedSweep } from '../../sweep/merge.js';
 import { serializeSweep } from '../../sweep/report.js';

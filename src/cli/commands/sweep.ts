@@ -1,4 +1,4 @@
-/** `bellstep sweep`: one headless run per seed of a range, on worker threads (FORMAT.md §5, §8). */
+/** `bellstep sweep`: one headless run per seed of a range, on worker threads (docs/cli.md). */
 import { join } from 'node:path';
 import { executeSweep, sweepJob, workerCount, type SweepPlan } from '../../api/sweep.js';
 import { junitXml } from '../../report/junit.js';

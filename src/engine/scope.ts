@@ -120,8 +120,14 @@ export class RuleScope implements Scope {
     this.now = w.time;
     this.functions = programFunctions({
       now: () => this.now,
-      pairById: (id) => this.w.nodes[this.node].pairs.find((p) => p.id === id),
+      pairById: (id) => this.w.nodes[this.node].pairs.find((p) => p.id === id) ?? this.releasedById(id),
     });
+  }
+
+  /** The last record of a pair this rule's body measured, discarded or delivered, by its id. */
+  private releasedById(id: string): PairRecord | undefined {
+    for (const [, rec] of this.bindings.released) if (rec.id === id) return rec;
+    return undefined;
   }
 
   /** Points the scope at another world and node, clearing its bindings. */

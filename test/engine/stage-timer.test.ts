@@ -113,6 +113,13 @@ programs:
     expect(first('2 ms').fires.map((f) => f.rule)).toEqual(['late']);
   });
 
+  it('reads waited() of a pair the body already discarded, as age() does, instead of failing', () => {
+    const net = NET('min_wait: 3ms', '- discard: p\n          - log: "after: {waited(p)} ns"');
+    const { events } = runUntil(engineFrom(net, NOISE), (ev) => fired(ev, 'act'));
+    const log = events.at(-1)!.fires.find((f) => f.rule === 'act')!.log;
+    expect(log).toEqual(['waited 3000000 ns, age ' + (events.at(-1)!.time - events.find((ev) => fired(ev, 'park'))!.time) + ' ns', 'after: 3000000 ns']);
+  });
+
   it('explains a pair that has not waited long enough, with the time it is due', () => {
     const engine = engineFrom(NET('min_wait: 3ms'), NOISE);
     const { events, world } = runUntil(engine, (ev) => fired(ev, 'park'));

@@ -195,7 +195,8 @@ export class ExprKinds {
         return 'any';
       }
       if (b?.kind === 'message' && !MESSAGE_FIELDS.includes(n.property)) return this.fields.dataKind(b.msgKind, this.rule.node, b.from, n.property);
-      return FIELD_KINDS[n.property] !== undefined && !(b?.kind === 'message' && n.property === 'pair') ? FIELD_KINDS[n.property] : 'any';
+      // own keys only: a noted field may be called "toString"
+      return Object.hasOwn(FIELD_KINDS, n.property) && !(b?.kind === 'message' && n.property === 'pair') ? FIELD_KINDS[n.property] : 'any';
     }
     if (o !== 'any') {
       this.report(e, n, 'type-mismatch', `${what} is ${WORDS[o]}, not a record, so it has no field "${n.property}"`, 'read fields of a bound pair or message, e.g. p.id or m.pair');

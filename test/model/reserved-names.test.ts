@@ -90,4 +90,36 @@ ${end('quay')}`;
     expect(s.delivered.map((d: { id: string }) => d.id)).toEqual(['toString', 'toString', 'toString']);
     expect(s.fired).toEqual({ mill: { rename: 3 }, quay: { rename: 3 } });
   });
+
+  it('runs notes and message data keyed by such names correctly', async () => {
+    const net = `format: bellstep/program-set@1
+nodes:
+  - {id: quay, qubits: 1}
+  - {id: mill, qubits: 1}
+links:
+  - {ends: [quay, mill], length: 1 km, slots: 1}
+programs:
+  mill:
+    rules:
+      - name: tell
+        when: [{have: {partner: quay, as: p}}]
+        do:
+          - note: {pair: p, set: {toString: 7, hasOwnProperty: 2}}
+          - send: {to: quay, kind: hello, pair: p.id, data: {valueOf: "p.toString + p.hasOwnProperty"}}
+          - deliver: p
+  quay:
+    rules:
+      - name: hear
+        when: [{got: {from: mill, kind: hello, as: m}}, {have: {id: m.pair, as: q}}, {check: "m.valueOf == 9"}]
+        do: [{deliver: q}]
+`;
+    const c = await runCli(['check', 'k.net.yaml'], { 'k.net.yaml': net });
+    expect(c.stdout).toContain('no findings');
+    const r = await runCli(['run', 'k.net.yaml', '--events', '6', '--json'], { 'k.net.yaml': net });
+    expect(r.code, r.stderr).toBe(0);
+    const s = JSON.parse(r.stdout);
+    // hear fires only when m.valueOf read the data value 7 + 2, not the built-in function
+    expect(s.fired.quay.hear).toBe(s.fired.mill.tell);
+    expect(s.delivered.length).toBe(s.fired.quay.hear);
+  });
 });

@@ -74,7 +74,8 @@ export class History {
   private frontierWorld: World;
   private readonly chain = new DigestChain();
   private readonly nodeIndex = new Map<string, number>();
-  private readonly summaryText: (string | undefined)[] = new Array(SUMMARIES);
+  /** The most recent events' texts, or the events to read them from (a text is built only when shown). */
+  private readonly summaryText: (string | EngineEvent | undefined)[] = new Array(SUMMARIES);
   private readonly summaryAt = new Int32Array(SUMMARIES).fill(-1);
   /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
   private lo = 0;
@@ -192,7 +193,7 @@ export class History {
   /** The one-line summary of event i. */
   summary(i: number): string {
     const slot = i % SUMMARIES;
-    if (this.summaryAt[slot] === i) return this.summaryText[slot]!;
+    if (this.summaryAt[slot] === i) return this.textAt(slot);
     // recompute the neighbourhood at once: panes ask for runs of lines
     const from = Math.max(0, i - 64);
     const to = Math.min(this.frontier, i + 64);
@@ -205,10 +206,18 @@ export class History {
         return false;
       },
     }, { keep: 'none', detail: false });
-    return this.summaryAt[slot] === i ? this.summaryText[slot]! : '';
+    return this.summaryAt[slot] === i ? this.textAt(slot) : '';
   }
 
-  private keepSummary(i: number, text: string): void {
+  private textAt(slot: number): string {
+    const t = this.summaryText[slot]!;
+    if (typeof t === 'string') return t;
+    const text = t.summary;
+    this.summaryText[slot] = text;
+    return text;
+  }
+
+  private keepSummary(i: number, text: string | EngineEvent): void {
     const slot = i % SUMMARIES;
     this.summaryAt[slot] = i;
     this.summaryText[slot] = text;
@@ -228,9 +237,8 @@ export class History {
 
   private record1(ev: EngineEvent, after: World): void {
     this.chain.advance(ev, after);
-    const summary = ev.summary;
     this.records.push(ev.time, codeOf(this.nodeIndex.get(ev.node)!, ev.type), this.chain.hi, this.chain.lo);
-    this.keepSummary(ev.index, summary);
+    this.keepSummary(ev.index, ev);
     this.onNewEvent?.(ev, after);
   }
 

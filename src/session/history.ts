@@ -18,7 +18,7 @@ import { DigestChain, type ReplayEvent } from './replay.js';
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
   readonly window?: number;
-  /** Events between keyframes where they are densest (default 64). */
+  /** Events between keyframes where they are densest (default 256). */
   readonly keyframeInterval?: number;
   /** Bytes that records, the window and keyframes may take together (default 256 MiB). */
   readonly budgetBytes?: number;
@@ -26,7 +26,7 @@ export interface HistoryOptions {
   readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 64, budgetBytes: 256 * 1024 * 1024 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 256, budgetBytes: 256 * 1024 * 1024 } as const;
 
 /** Summaries kept for the most recently computed events (older ones are recomputed when asked). */
 const SUMMARIES = 8192;
@@ -151,7 +151,7 @@ export class History {
       k += r.count;
       if (r.count < step) break;
       if (k < n && k % this.base === 0 && Math.abs(k - this.focus) < 64 * this.base) this.remember(k, w);
-      if (k < n) yield { label: `going to event ${n}`, done: k - from, total, time: w.time };
+      if (k < n) yield { label: n === 0 ? 'going to the start' : `going to event ${n - 1}`, done: k - from, total, time: w.time };
     }
     this.lo = k;
     this.seg = [w];
@@ -235,10 +235,12 @@ export class History {
     return lo;
   }
 
-  private record1(ev: EngineEvent, after: World): void {
+  private record1(ev: EngineEvent, after: World, keepText: boolean): void {
     this.chain.advance(ev, after);
     this.records.push(ev.time, codeOf(this.nodeIndex.get(ev.node)!, ev.type), this.chain.hi, this.chain.lo);
-    this.keepSummary(ev.index, ev);
+    // a step keeps its event's text for the panes; a long extension does not (the texts near
+    // where it stops are rebuilt when a pane asks, and keeping them would keep the events alive)
+    if (keepText) this.keepSummary(ev.index, ev);
     this.onNewEvent?.(ev, after);
   }
 
@@ -319,7 +321,7 @@ export class History {
           before: before ? (_d, t) => (before(t) ? ((halt = true), true) : false) : undefined,
           after: (ev, d) => {
             // keyframes and digests need the world after this event; within a batch that is the draft
-            this.record1(ev, d);
+            this.record1(ev, d, false);
             if (stop?.(ev, d)) halt = true;
             return halt;
           },
@@ -404,7 +406,7 @@ export class History {
       return null;
     }
     if (n + 1 > this.frontier) {
-      this.record1(event, world);
+      this.record1(event, world, true);
       this.frontierWorld = world;
       this.remember(n + 1, world);
     }

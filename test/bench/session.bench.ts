@@ -10,13 +10,18 @@
  * - headless speed with recording against without (goal ≥ 0.8).
  */
 import type { World } from '../../src/engine/index.js';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { parseReplay, Recorder } from '../../src/session/replay.js';
 import { HISTORY_DEFAULTS } from '../../src/session/history.js';
 import { verifyReplay } from '../../src/session/verify.js';
 import { runHeadless } from '../../src/session/run.js';
 import { Session } from '../../src/session/session.js';
 import { engineFrom } from '../engine/scenarios.js';
-import { CHAIN_NOISE, nestedChain } from './chain.js';
+import { CHAIN_NOISE, nestedChain, nestedChainWithRoles } from './chain.js';
 import { formatNs, type BenchLine } from './harness.js';
 
 declare const gc: (() => void) | undefined;
@@ -219,8 +224,52 @@ function recordingLine(): BenchLine {
   };
 }
 
+const here = dirname(fileURLToPath(import.meta.url));
+
+/**
+ * The real debugger in tmux (compiled, as the bench builds it): `:go 300000` sent in one piece
+ * against the same headless run, and how long Esc takes to stop a longer jump. None when
+ * tmux is not installed.
+ */
+async function terminalLines(): Promise<BenchLine[]> {
+  if (spawnSync('tmux', ['-V']).status !== 0) return [];
+  const dir = mkdtempSync(join(tmpdir(), 'bellstep-bench-tmux-'));
+  const net = join(dir, 'chain.net.yaml');
+  const noise = join(dir, 'chain.noise.yaml');
+  writeFileSync(net, nestedChainWithRoles(2));
+  writeFileSync(noise, CHAIN_NOISE);
+  const bin = join(here, '../../src/cli/bin.js');
+  const sock = `bellstep-bench-${process.pid}`;
+  const tmux = (...args: string[]) => spawnSync('tmux', ['-L', sock, ...args], { encoding: 'utf8' });
+  const screen = () => tmux('capture-pane', '-p', '-t', 'b').stdout;
+  const wait = async (check: () => boolean) => {
+    for (let i = 0; i < 6000 && !check(); i++) await new Promise((r) => setTimeout(r, 10));
+  };
+  tmux('new-session', '-d', '-s', 'b', '-x', '120', '-y', '40', `CI=false NO_COLOR=1 ${process.execPath} ${bin} debug ${net} --noise ${noise}; sleep 30`);
+  await wait(() => screen().includes('SITES'));
+  let t0 = performance.now();
+  tmux('send-keys', '-t', 'b', ':go 300000', 'Enter');
+  await wait(() => screen().includes('event #300000 '));
+  const jump = performance.now() - t0;
+  tmux('send-keys', '-t', 'b', ':go 50000000', 'Enter');
+  await wait(() => screen().includes('going to event 50000000'));
+  await new Promise((r) => setTimeout(r, 500));
+  t0 = performance.now();
+  tmux('send-keys', '-t', 'b', 'Escape');
+  await wait(() => screen().includes('stopped by Esc'));
+  const esc = performance.now() - t0;
+  tmux('kill-server');
+  t0 = performance.now();
+  spawnSync(process.execPath, [bin, 'run', net, '--noise', noise, '--events', '300000'], { stdio: 'ignore' });
+  const headless = performance.now() - t0;
+  return [
+    { name: 'debugger `:go 300000` in tmux (5-site chain), against the same headless run', ratio: jump / headless, goal: '<= 1.5', ok: jump / headless <= 1.5, detail: `${(jump / 1000).toFixed(2)} s vs ${(headless / 1000).toFixed(2)} s` },
+    { name: 'Esc during a long jump: time until it has stopped, against 1.5 s', ratio: esc / 1500, goal: '<= 1', ok: esc <= 1500, detail: `${esc.toFixed(0)} ms` },
+  ];
+}
+
 export default async function sessionBench(): Promise<BenchLine[]> {
   const total = Number(process.env.BELLSTEP_BENCH_HISTORY ?? 1_000_000);
   // the million-event history goes last: the garbage it leaves would slow the others down
-  return [...stepLines(), memoryLine(), ...latencyLines(), recordingLine(), ...diskLines(), ...gotoLine(total)];
+  return [...stepLines(), memoryLine(), ...latencyLines(), recordingLine(), ...diskLines(), ...(await terminalLines()), ...gotoLine(total)];
 }

@@ -6,7 +6,7 @@
  */
 import { ProgramError, type Engine, type EngineEvent, type World } from '../engine/index.js';
 import { InputError } from '../model/errors.js';
-import { DigestChain, parseReplay, type ReplayEvent, type ReplayFile } from '../session/replay.js';
+import { DigestChain, digestVersion, parseReplay, type ReplayEvent, type ReplayFile } from '../session/replay.js';
 import { engineFromReplay } from '../session/verify.js';
 
 /** A run as recorded: the engine of its inputs, its seed and its event records. */
@@ -17,6 +17,8 @@ export interface RecordedRun {
   readonly seed: number;
   /** Its event records (a replay file's columns, or the session's). */
   readonly events: RecordedEvents;
+  /** Which digest its records carry (1 for `@1` files, 2 otherwise). */
+  readonly digestVersion?: 1 | 2;
 }
 
 /** Recorded events as a re-run reads them: one at a time, with their time and digest. */
@@ -28,7 +30,7 @@ export interface RecordedEvents {
 
 /** A replay file's run, through the session's replay loader (any replay version it reads). */
 export function recordedRun(name: string, r: ReplayFile): RecordedRun {
-  return { name, engine: engineFromReplay(r), seed: r.seed, events: r.events };
+  return { name, engine: engineFromReplay(r), seed: r.seed, events: r.events, digestVersion: digestVersion(r.format) };
 }
 
 /** Parses a replay file's text and gives its run; bad files are input errors naming `name`. */
@@ -44,9 +46,10 @@ const BATCH = 4096;
 export class Rerun {
   world: World;
   done = 0;
-  private readonly chain = new DigestChain();
+  private readonly chain: DigestChain;
 
   constructor(readonly run: RecordedRun) {
+    this.chain = new DigestChain(run.digestVersion ?? 2);
     this.world = run.engine.initial(run.seed);
   }
 

@@ -223,6 +223,162 @@ function hashEvent(h: Hasher, ev: EngineEvent, w: World): void {
   }
 }
 
+// ---------------------------------------------------------------- the second digest
+
+/** The hash of each name (node, stage, link): a few strings mixed in again and again; cleared if it ever grows large. */
+const stringHash = new Map<string, number>();
+
+function hashOf(s: string): number {
+  let v = stringHash.get(s);
+  if (v === undefined) {
+    let a = 0x811c9dc5 | 0;
+    for (let i = 0; i < s.length; i++) a = Math.imul(a ^ s.charCodeAt(i), 0x01000193);
+    v = Math.imul(a ^ s.length, 0x5bd1e995);
+    if (stringHash.size > 65536) stringHash.clear();
+    stringHash.set(s, v);
+  }
+  return v;
+}
+
+/** The words the second digest mixes, collected first and mixed in one tight loop at the end. */
+let words = new Int32Array(4096);
+let nw = 0;
+
+function put(x: number): void {
+  if (nw === words.length) {
+    const grown = new Int32Array(words.length * 2);
+    grown.set(words);
+    words = grown;
+  }
+  words[nw++] = x;
+}
+
+const f64 = new Float64Array(1);
+const u32 = new Int32Array(f64.buffer);
+
+/** A number as one word when it is a small whole number, else as its two 32-bit halves (as `Hasher.num`). */
+function putNum(x: number): void {
+  if (Number.isInteger(x) && x < 2147483648 && x > -2147483648) put(x);
+  else {
+    f64[0] = x;
+    put(u32[0]);
+    put(u32[1]);
+  }
+}
+
+function putStr(str: string): void {
+  put(str.length);
+  for (let i = 0; i < str.length; i++) put(str.charCodeAt(i));
+}
+
+/**
+ * The digest of `bellstep/replay@2` files: the same state as the first (clock, generator,
+ * counters, every touched node with its pairs and inbox, their clusters' density matrices
+ * bit for bit, their links, the sends and the deliveries), chained the same way, with names
+ * (nodes, stages, links) mixed in by their own cached hash and without the one-line summary,
+ * which is derived from that state. The words are gathered first and mixed in one loop.
+ */
+export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEvent, w: World): [number, number] {
+  nw = 0;
+  put(prevHi);
+  put(prevLo);
+  putNum(ev.index);
+  putNum(w.time);
+  putNum(w.seq);
+  const rng = w.rng;
+  put(rng[0]);
+  put(rng[1]);
+  put(rng[2]);
+  put(rng[3]);
+  const c = w.counters;
+  putNum(c.qubit);
+  putNum(c.cluster);
+  putNum(c.pair);
+  putNum(c.message);
+  putNum(c.sent);
+  putNum(c.arrived);
+  putNum(c.dropped);
+  putNum(w.delivered?.count ?? 0);
+  putNum(w.queue.length);
+  const clusters = clusterList;
+  const links = linkList;
+  clusters.length = 0;
+  links.length = 0;
+  for (const id of ev.nodes) {
+    const n = w.nodes[id];
+    put(hashOf(id));
+    putNum(n.busyUntil);
+    putNum(n.nextWake ?? -1);
+    putNum(n.arrivals);
+    put(n.pairs.length);
+    for (const p of n.pairs) {
+      put(p.qubit);
+      // pair ids are new with every pair: mixed in as text, not cached
+      putStr(p.id);
+      put(hashOf(p.partner));
+      put(hashOf(p.stage));
+      putNum(p.born);
+      putNum(p.order);
+      put(hashOf(p.link));
+      addOnce(links, p.link);
+      for (const k in p.notes) {
+        put(hashOf(k));
+        putStr(JSON.stringify(p.notes[k]));
+      }
+      const qs = w.qubits.get(p.qubit);
+      if (qs) {
+        putNum(qs.decayedTo);
+        addOnce(clusters, qs.cluster);
+      }
+    }
+    put(n.inbox.length);
+    for (const m of n.inbox) put(m.id);
+  }
+  for (const snd of ev.sends) {
+    put(snd.id);
+    putNum(snd.arrives);
+  }
+  if (clusters.length > 1) clusters.sort((x, y) => x - y);
+  for (const cid of clusters) {
+    const cl = w.clusters.get(cid);
+    if (!cl) continue;
+    put(cid);
+    put(cl.qubits.length);
+    for (const q of cl.qubits) put(q);
+    const d = cl.rho.data;
+    const ws = new Int32Array(d.buffer, d.byteOffset, d.length * 2);
+    put(ws.length);
+    for (let i = 0; i < ws.length; i++) put(ws[i]);
+  }
+  if (links.length > 1) links.sort();
+  for (const lid of links) {
+    const l = w.links[lid];
+    if (!l) continue;
+    put(hashOf(lid));
+    put(l.generating ? 1 : 0);
+    let keys = usedKeys.get(l.used);
+    if (keys === undefined) {
+      keys = Object.keys(l.used).sort();
+      usedKeys.set(l.used, keys);
+    }
+    for (const k of keys) putNum(l.used[k]);
+  }
+  for (const d of ev.deliveries) {
+    putStr(d.id);
+    putNum(d.fidelity);
+  }
+  // the same mixing as `Hasher.int`, word by word
+  let a = 0x811c9dc5 | 0;
+  let b = 0x9e3779b9 | 0;
+  for (let i = 0; i < nw; i++) {
+    const x = words[i];
+    a = Math.imul(a ^ x, 0x01000193);
+    b = Math.imul(b ^ x, 0x5bd1e995);
+    b ^= b >>> 15;
+  }
+  return [a >>> 0, b >>> 0];
+}
+
 function byName(a: number, b: number): number {
   const x = String(a);
   const y = String(b);

@@ -18,7 +18,7 @@ import { DigestChain, type ReplayEvent } from './replay.js';
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
   readonly window?: number;
-  /** Events between keyframes where they are densest (default 64). */
+  /** Events between keyframes where they are densest (default 256). */
   readonly keyframeInterval?: number;
   /** Bytes that records, the window and keyframes may take together (default 256 MiB). */
   readonly budgetBytes?: number;
@@ -26,7 +26,7 @@ export interface HistoryOptions {
   readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 64, budgetBytes: 256 * 1024 * 1024 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 256, budgetBytes: 256 * 1024 * 1024 } as const;
 
 /** Summaries kept for the most recently computed events (older ones are recomputed when asked). */
 const SUMMARIES = 8192;
@@ -74,7 +74,8 @@ export class History {
   private frontierWorld: World;
   private readonly chain = new DigestChain();
   private readonly nodeIndex = new Map<string, number>();
-  private readonly summaryText: (string | undefined)[] = new Array(SUMMARIES);
+  /** The most recent events' texts, or the events to read them from (a text is built only when shown). */
+  private readonly summaryText: (string | EngineEvent | undefined)[] = new Array(SUMMARIES);
   private readonly summaryAt = new Int32Array(SUMMARIES).fill(-1);
   /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
   private lo = 0;
@@ -150,7 +151,7 @@ export class History {
       k += r.count;
       if (r.count < step) break;
       if (k < n && k % this.base === 0 && Math.abs(k - this.focus) < 64 * this.base) this.remember(k, w);
-      if (k < n) yield { label: `going to event ${n}`, done: k - from, total, time: w.time };
+      if (k < n) yield { label: n === 0 ? 'going to the start' : `going to event ${n - 1}`, done: k - from, total, time: w.time };
     }
     this.lo = k;
     this.seg = [w];
@@ -192,7 +193,7 @@ export class History {
   /** The one-line summary of event i. */
   summary(i: number): string {
     const slot = i % SUMMARIES;
-    if (this.summaryAt[slot] === i) return this.summaryText[slot]!;
+    if (this.summaryAt[slot] === i) return this.textAt(slot);
     // recompute the neighbourhood at once: panes ask for runs of lines
     const from = Math.max(0, i - 64);
     const to = Math.min(this.frontier, i + 64);
@@ -205,10 +206,18 @@ export class History {
         return false;
       },
     }, { keep: 'none', detail: false });
-    return this.summaryAt[slot] === i ? this.summaryText[slot]! : '';
+    return this.summaryAt[slot] === i ? this.textAt(slot) : '';
   }
 
-  private keepSummary(i: number, text: string): void {
+  private textAt(slot: number): string {
+    const t = this.summaryText[slot]!;
+    if (typeof t === 'string') return t;
+    const text = t.summary;
+    this.summaryText[slot] = text;
+    return text;
+  }
+
+  private keepSummary(i: number, text: string | EngineEvent): void {
     const slot = i % SUMMARIES;
     this.summaryAt[slot] = i;
     this.summaryText[slot] = text;
@@ -226,11 +235,12 @@ export class History {
     return lo;
   }
 
-  private record1(ev: EngineEvent, after: World): void {
+  private record1(ev: EngineEvent, after: World, keepText: boolean): void {
     this.chain.advance(ev, after);
-    const summary = ev.summary;
     this.records.push(ev.time, codeOf(this.nodeIndex.get(ev.node)!, ev.type), this.chain.hi, this.chain.lo);
-    this.keepSummary(ev.index, summary);
+    // a step keeps its event's text for the panes; a long extension does not (the texts near
+    // where it stops are rebuilt when a pane asks, and keeping them would keep the events alive)
+    if (keepText) this.keepSummary(ev.index, ev);
     this.onNewEvent?.(ev, after);
   }
 
@@ -311,7 +321,7 @@ export class History {
           before: before ? (_d, t) => (before(t) ? ((halt = true), true) : false) : undefined,
           after: (ev, d) => {
             // keyframes and digests need the world after this event; within a batch that is the draft
-            this.record1(ev, d);
+            this.record1(ev, d, false);
             if (stop?.(ev, d)) halt = true;
             return halt;
           },
@@ -396,7 +406,7 @@ export class History {
       return null;
     }
     if (n + 1 > this.frontier) {
-      this.record1(event, world);
+      this.record1(event, world, true);
       this.frontierWorld = world;
       this.remember(n + 1, world);
     }

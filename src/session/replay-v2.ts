@@ -67,7 +67,14 @@ export class ReplayWriter {
   private lastTime = 0;
   private count = 0;
   private firstBlock = true;
-  private readonly recent: (ReplayEvent | undefined)[] = new Array(RECENT);
+  /** The last events' fields in rings, made into records only when the file ends. */
+  private readonly recentTime = new Float64Array(RECENT);
+  private readonly recentHi = new Uint32Array(RECENT);
+  private readonly recentLo = new Uint32Array(RECENT);
+  private readonly recentNode: string[] = new Array(RECENT);
+  private readonly recentKind: string[] = new Array(RECENT);
+  /** The last events' texts, or how to make them (an event's text is built only if it ends up in the file). */
+  private readonly recentThunk: (string | null | (() => string))[] = new Array(RECENT);
   private finished = false;
 
   constructor(
@@ -100,7 +107,7 @@ export class ReplayWriter {
   }
 
   /** Adds the next event; `hi` and `lo` are its digest's halves. */
-  add(time: number, node: string, kind: string, hi: number, lo: number, summary: string | null): void {
+  add(time: number, node: string, kind: string, hi: number, lo: number, summary: string | null | (() => string)): void {
     const n = this.nodeIndex.get(node);
     const k = KINDS.indexOf(kind);
     if (n === undefined || k < 0 || time < this.lastTime) throw new Error(`replay: cannot record an event at ${node} (${kind}, t=${time})`);
@@ -109,7 +116,13 @@ export class ReplayWriter {
     this.digests.u32(hi);
     this.digests.u32(lo);
     this.lastTime = time;
-    this.recent[this.count % RECENT] = { index: this.count, time_ns: time, node, kind, summary, digest: hex(hi, lo) };
+    const slot = this.count % RECENT;
+    this.recentTime[slot] = time;
+    this.recentHi[slot] = hi;
+    this.recentLo[slot] = lo;
+    this.recentNode[slot] = node;
+    this.recentKind[slot] = kind;
+    this.recentThunk[slot] = summary;
     this.count++;
     if (this.count - this.blockFirst === BLOCK) this.flush();
   }
@@ -140,7 +153,11 @@ export class ReplayWriter {
     this.finished = true;
     this.flush();
     const recent: ReplayEvent[] = [];
-    for (let i = Math.max(0, this.count - RECENT); i < this.count; i++) recent.push(this.recent[i % RECENT]!);
+    for (let i = Math.max(0, this.count - RECENT); i < this.count; i++) {
+      const k = i % RECENT;
+      const t = this.recentThunk[k];
+      recent.push({ index: i, time_ns: this.recentTime[k], node: this.recentNode[k], kind: this.recentKind[k], summary: typeof t === 'function' ? t() : t, digest: hex(this.recentHi[k], this.recentLo[k]) });
+    }
     const tail = recent.map((e) => `    ${JSON.stringify(e)}`).join(',\n');
     this.out(
       `${this.firstBlock ? '' : '\n  '}],\n  "recent": [${recent.length ? `\n${tail}\n  ` : ''}],\n` +

@@ -11,7 +11,7 @@ import { basename } from 'node:path';
 import type { Engine, EngineEvent, World } from '../engine/index.js';
 import { InputError } from '../model/errors.js';
 import type { ProgramSet, NoiseModel } from '../model/types.js';
-import { eventDigestHalves, GENESIS_DIGEST } from './digest.js';
+import { eventDigestHalves, eventDigestHalves2, GENESIS_DIGEST } from './digest.js';
 import { ListEvents, type ReplayEvents } from './replay-columns.js';
 import { checksumV2, decodeEvents, REPLAY_FORMAT_V2, ReplayWriter, type ReplayFinal, type ReplayHead, type ReplayLimits } from './replay-v2.js';
 import type { Stop } from './summary.js';
@@ -150,11 +150,16 @@ export function buildReplay(
   return { ...body, checksum: replayChecksum(body) };
 }
 
-/** The chain of per-event digests: each event's record carries the digest of the world after it. */
+/**
+ * The chain of per-event digests: each event's record carries the digest of the world after
+ * it. Version 1 is the digest of `@1` files; version 2 (the default) that of `@2` files.
+ */
 export class DigestChain {
   /** The digest after the last event, as two 32-bit halves (the genesis digest is all zeros). */
   hi = 0;
   lo = 0;
+
+  constructor(readonly version: 1 | 2 = 2) {}
 
   /** The record of the next event, given the world after it. */
   next(ev: EngineEvent, w: World): ReplayEvent {
@@ -164,13 +169,18 @@ export class DigestChain {
 
   /** Moves the chain past an event without building its record. */
   advance(ev: EngineEvent, w: World): void {
-    [this.hi, this.lo] = eventDigestHalves(this.hi, this.lo, ev, w);
+    [this.hi, this.lo] = this.version === 1 ? eventDigestHalves(this.hi, this.lo, ev, w) : eventDigestHalves2(this.hi, this.lo, ev, w);
   }
 
   /** The digest after the last event, as 16 hex digits. */
   get hex(): string {
     return (this.hi >>> 0).toString(16).padStart(8, '0') + (this.lo >>> 0).toString(16).padStart(8, '0');
   }
+}
+
+/** The digest version of a replay's format. */
+export function digestVersion(format: string): 1 | 2 {
+  return format === REPLAY_FORMAT ? 1 : 2;
 }
 
 /** What a recording says about itself: the seed, breakpoints, expectations and limits it ran with. */
@@ -214,7 +224,8 @@ export class Recorder {
   /** Adds an event with the world after it. */
   add(ev: EngineEvent, w: World): void {
     this.chain.advance(ev, w);
-    this.writer.add(ev.time, ev.node, ev.type, this.chain.hi, this.chain.lo, ev.summary);
+    // the text is built only for the events that end up among the file's last ones
+    this.writer.add(ev.time, ev.node, ev.type, this.chain.hi, this.chain.lo, () => ev.summary);
   }
 
   /** Events recorded so far. */

@@ -154,7 +154,8 @@ export class Session {
   startGoto(n: number): LongOp<SessionStop> {
     const target = Math.max(0, Math.floor(n));
     const from = this.cursorAt;
-    const label = `going to event ${target}`;
+    // the cursor after `target` events is on event #target−1, which is what the user asked for
+    const label = target === 0 ? 'going to the start' : `going to event ${target - 1}`;
     const progress = (): Progress => ({ label, done: Math.abs(this.history.frontier - from), total: Math.abs(target - from), time: this.history.frontierTime });
     // a generator cannot be an arrow function, so the steps reach the session through a name
     // eslint-disable-next-line @typescript-eslint/no-this-alias

@@ -10,7 +10,7 @@ import { Engine, ProgramError, quiescence, type EngineEvent, type World } from '
 import { loadInputs } from '../model/index.js';
 import { formatDuration, parseDuration } from '../model/units.js';
 import { breakpointScanner, parseBreakpoint } from './breakpoints.js';
-import { DigestChain, type ReplayEvent, type ReplayFile } from './replay.js';
+import { DigestChain, digestVersion, type ReplayEvent, type ReplayFile } from './replay.js';
 import { checkExpectations, parseExpectation } from './run.js';
 import type { ExpectationResult } from './summary.js';
 
@@ -107,7 +107,7 @@ export function verifyReplay(r: ReplayFile): VerifyResult {
 function verifyWith(engine: Engine, r: ReplayFile): VerifyResult {
   const net = engine.net;
   let world: World = engine.initial(r.seed);
-  const chain = new DigestChain();
+  const chain = new DigestChain(digestVersion(r.format));
   const total = r.events.length;
   let divergence: Divergence | null = null;
   let checked = 0;

@@ -213,8 +213,9 @@ export class Controller implements CommandTarget {
     }
     if (!stop) {
       const now = performance.now();
-      // the status line is redrawn a few times a second, not after every slice
-      if (now - op.lastDraw > 100) {
+      // the status line is redrawn four times a second, not after every slice: a frame costs
+      // about as much as a slice of work
+      if (now - op.lastDraw > 250) {
         op.lastDraw = now;
         this.busy = this.progressText();
         this.changed();

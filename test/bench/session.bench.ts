@@ -1,17 +1,27 @@
 /**
  * Session costs, as ratios measured in one run:
+ * - one step forward and one step back on the 5-site chain, against 0.2 ms;
  * - memory of the history per retained event against a deep copy per event (goal ≤ 0.05);
  * - step-back latency against step-forward latency (goal ≤ 1);
  * - going to a random event of a 1,000,000-event history against one step forward
- *   (goal: about 100× or better, a keyframe interval's worth of replay);
+ *   (goal: about 100× or better), and that history's memory against its budget;
+ * - bytes per event of a recording on disk (goal ≤ 24);
+ * - verify speed against a headless run of the same events (goal ≥ 0.8);
  * - headless speed with recording against without (goal ≥ 0.8).
  */
 import type { World } from '../../src/engine/index.js';
-import { Recorder } from '../../src/session/replay.js';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { parseReplay, Recorder } from '../../src/session/replay.js';
+import { HISTORY_DEFAULTS } from '../../src/session/history.js';
+import { verifyReplay } from '../../src/session/verify.js';
 import { runHeadless } from '../../src/session/run.js';
 import { Session } from '../../src/session/session.js';
 import { engineFrom } from '../engine/scenarios.js';
-import { CHAIN_NOISE, nestedChain } from './chain.js';
+import { CHAIN_NOISE, nestedChain, nestedChainWithRoles } from './chain.js';
 import { formatNs, type BenchLine } from './harness.js';
 
 declare const gc: (() => void) | undefined;
@@ -92,7 +102,64 @@ function latencyLines(): BenchLine[] {
   ];
 }
 
-function gotoLine(total: number): BenchLine {
+function stepLines(): BenchLine[] {
+  const s = new Session(engineFrom(nestedChain(2), CHAIN_NOISE));
+  s.goto(20_000);
+  const k = 3000;
+  const fwd = time(() => {
+    for (let i = 0; i < k; i++) s.stepForward();
+  }) / k;
+  // back through the window, then far back where the window is rebuilt from a keyframe
+  const back = time(() => {
+    for (let i = 0; i < k; i++) s.stepBack();
+  }) / k;
+  s.goto(5_000);
+  const backFar = time(() => {
+    for (let i = 0; i < k; i++) s.stepBack();
+  }) / k;
+  const budget = 0.2e6;
+  return [
+    { name: 'one step forward on the 5-site chain (a new event, its digest and record), against 0.2 ms', ratio: fwd / budget, goal: '<= 1', ok: fwd <= budget, detail: formatNs(fwd) },
+    { name: 'one step back on the 5-site chain, against 0.2 ms (window held / rebuilt after a jump)', ratio: Math.max(back, backFar) / budget, goal: '<= 1', ok: Math.max(back, backFar) <= budget, detail: `${formatNs(back)} / ${formatNs(backFar)}` },
+  ];
+}
+
+function diskLines(): BenchLine[] {
+  const engine = engineFrom(nestedChain(2), CHAIN_NOISE);
+  const n = Number(process.env.BELLSTEP_BENCH_HISTORY ?? 1_000_000);
+  let bytes = 0;
+  const chunks: string[] = [];
+  const rec = new Recorder(engine, { seed: 5, breakpoints: [], expectations: [], limits: { until_ns: null, events: n } }, (c) => {
+    bytes += Buffer.byteLength(c);
+    chunks.push(c);
+  });
+  const r = runHeadless(engine, { seed: 5, maxEvents: n, onEvent: (ev, w) => rec.add(ev, w) });
+  rec.finish(r.stop);
+  const replay = parseReplay(chunks.join(''));
+  chunks.length = 0;
+  // verify against a headless run of the same events, alternately, best of each
+  const m = Math.min(n, 200_000);
+  const short: string[] = [];
+  const rec2 = new Recorder(engine, { seed: 5, breakpoints: [], expectations: [], limits: { until_ns: null, events: m } }, (c) => void short.push(c));
+  rec2.finish(runHeadless(engine, { seed: 5, maxEvents: m, onEvent: (ev, w) => rec2.add(ev, w) }).stop);
+  const shortReplay = parseReplay(short.join(''));
+  let plain = Infinity;
+  let verify = Infinity;
+  for (let round = 0; round < 3; round++) {
+    heapUsed();
+    plain = Math.min(plain, time(() => runHeadless(engine, { seed: 5, maxEvents: m })));
+    heapUsed();
+    verify = Math.min(verify, time(() => {
+      if (!verifyReplay(shortReplay).ok) throw new Error('the recording does not verify');
+    }));
+  }
+  return [
+    { name: `bytes per event of a ${n.toLocaleString('en')}-event recording (bellstep/replay@2)`, ratio: bytes / n, goal: '<= 24', ok: bytes / n <= 24, detail: `${(bytes / 1e6).toFixed(1)} MB; ${replay.events.length.toLocaleString('en')} events read back` },
+    { name: 'verify speed against a headless run of the same events', ratio: plain / verify, goal: '>= 0.8', ok: plain / verify >= 0.8, detail: `${formatNs(verify / m)} vs ${formatNs(plain / m)} per event` },
+  ];
+}
+
+function gotoLine(total: number): BenchLine[] {
   const engine = engineFrom(nestedChain(2), CHAIN_NOISE);
   const s = new Session(engine);
   const build = time(() => s.goto(total));
@@ -108,13 +175,23 @@ function gotoLine(total: number): BenchLine {
     sum += time(() => s.goto(target));
   }
   const ratio = sum / jumps / step;
-  return {
-    name: `go to a random event of a ${total.toLocaleString('en')}-event history, against one step forward`,
-    ratio,
-    goal: '<= ~100',
-    ok: ratio <= 150,
-    detail: `${formatNs(sum / jumps)} per jump vs ${formatNs(step)} per step; history built in ${formatNs(build)}; keyframe interval ${s.history.keyframeInterval}`,
-  };
+  const budget = HISTORY_DEFAULTS.budgetBytes;
+  return [
+    {
+      name: `go to a random event of a ${total.toLocaleString('en')}-event history, against one step forward`,
+      ratio,
+      goal: '<= ~100',
+      ok: ratio <= 120,
+      detail: `${formatNs(sum / jumps)} per jump vs ${formatNs(step)} per step; history built in ${formatNs(build)}; ${s.history.keyframeCount} keyframes`,
+    },
+    {
+      name: `memory the ${total.toLocaleString('en')}-event history keeps for rewind, against its budget (--history-mb ${budget / 2 ** 20})`,
+      ratio: s.history.bytes / budget,
+      goal: '<= 1',
+      ok: s.history.bytes <= budget,
+      detail: `${(s.history.bytes / 2 ** 20).toFixed(0)} MiB estimated`,
+    },
+  ];
 }
 
 function recordingLine(): BenchLine {
@@ -147,8 +224,52 @@ function recordingLine(): BenchLine {
   };
 }
 
+const here = dirname(fileURLToPath(import.meta.url));
+
+/**
+ * The real debugger in tmux (compiled, as the bench builds it): `:go 300000` sent in one piece
+ * against the same headless run, and how long Esc takes to stop a longer jump. None when
+ * tmux is not installed.
+ */
+async function terminalLines(): Promise<BenchLine[]> {
+  if (spawnSync('tmux', ['-V']).status !== 0) return [];
+  const dir = mkdtempSync(join(tmpdir(), 'bellstep-bench-tmux-'));
+  const net = join(dir, 'chain.net.yaml');
+  const noise = join(dir, 'chain.noise.yaml');
+  writeFileSync(net, nestedChainWithRoles(2));
+  writeFileSync(noise, CHAIN_NOISE);
+  const bin = join(here, '../../src/cli/bin.js');
+  const sock = `bellstep-bench-${process.pid}`;
+  const tmux = (...args: string[]) => spawnSync('tmux', ['-L', sock, ...args], { encoding: 'utf8' });
+  const screen = () => tmux('capture-pane', '-p', '-t', 'b').stdout;
+  const wait = async (check: () => boolean) => {
+    for (let i = 0; i < 6000 && !check(); i++) await new Promise((r) => setTimeout(r, 10));
+  };
+  tmux('new-session', '-d', '-s', 'b', '-x', '120', '-y', '40', `CI=false NO_COLOR=1 ${process.execPath} ${bin} debug ${net} --noise ${noise}; sleep 30`);
+  await wait(() => screen().includes('SITES'));
+  let t0 = performance.now();
+  tmux('send-keys', '-t', 'b', ':go 300000', 'Enter');
+  await wait(() => screen().includes('event #300000 '));
+  const jump = performance.now() - t0;
+  tmux('send-keys', '-t', 'b', ':go 50000000', 'Enter');
+  await wait(() => screen().includes('going to event 50000000'));
+  await new Promise((r) => setTimeout(r, 500));
+  t0 = performance.now();
+  tmux('send-keys', '-t', 'b', 'Escape');
+  await wait(() => screen().includes('stopped by Esc'));
+  const esc = performance.now() - t0;
+  tmux('kill-server');
+  t0 = performance.now();
+  spawnSync(process.execPath, [bin, 'run', net, '--noise', noise, '--events', '300000'], { stdio: 'ignore' });
+  const headless = performance.now() - t0;
+  return [
+    { name: 'debugger `:go 300000` in tmux (5-site chain), against the same headless run', ratio: jump / headless, goal: '<= 1.5', ok: jump / headless <= 1.5, detail: `${(jump / 1000).toFixed(2)} s vs ${(headless / 1000).toFixed(2)} s` },
+    { name: 'Esc during a long jump: time until it has stopped, against 1.5 s', ratio: esc / 1500, goal: '<= 1', ok: esc <= 1500, detail: `${esc.toFixed(0)} ms` },
+  ];
+}
+
 export default async function sessionBench(): Promise<BenchLine[]> {
   const total = Number(process.env.BELLSTEP_BENCH_HISTORY ?? 1_000_000);
   // the million-event history goes last: the garbage it leaves would slow the others down
-  return [memoryLine(), ...latencyLines(), recordingLine(), gotoLine(total)];
+  return [...stepLines(), memoryLine(), ...latencyLines(), recordingLine(), ...diskLines(), ...(await terminalLines()), ...gotoLine(total)];
 }

@@ -6,39 +6,19 @@
  * that it prints the same bytes as the in-process sweep from the sources.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { dirname, join, relative, resolve } from 'node:path';
-import { transformSync } from 'esbuild';
+import { rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { compileSources } from '../helpers/compile-sources.js';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/run-cli.js';
 import { LOSSY_NET, LOSSY_NOISE } from './scenarios.js';
 
-const ROOT = resolve(import.meta.dirname, '../..');
-const out = mkdtempSync(join(tmpdir(), 'bellstep-compiled-'));
+const { dir: out, files } = compileSources();
 afterAll(() => rmSync(out, { recursive: true, force: true }));
-
-function compileTree(dir: string): number {
-  let n = 0;
-  for (const entry of readdirSync(dir, { withFileTypes: true })) {
-    const path = join(dir, entry.name);
-    if (entry.isDirectory()) n += compileTree(path);
-    else if (/\.tsx?$/.test(entry.name)) {
-      const { code } = transformSync(readFileSync(path, 'utf8'), { loader: path.endsWith('x') ? 'tsx' : 'ts', format: 'esm', target: 'es2022', jsx: 'automatic', sourcefile: path });
-      const target = join(out, relative(join(ROOT, 'src'), path)).replace(/\.tsx?$/, '.js');
-      mkdirSync(dirname(target), { recursive: true });
-      writeFileSync(target, code);
-      n++;
-    }
-  }
-  return n;
-}
 
 describe('sweep from compiled code', () => {
   it('finds worker.js beside the compiled pool and prints the same bytes as from the sources', async () => {
-    expect(compileTree(join(ROOT, 'src'))).toBeGreaterThan(50);
-    writeFileSync(join(out, 'package.json'), '{"type": "module"}\n');
-    symlinkSync(join(ROOT, 'node_modules'), join(out, 'node_modules'), 'dir');
+    expect(files).toBeGreaterThan(50);
     writeFileSync(join(out, 'lossy.net.yaml'), LOSSY_NET);
     writeFileSync(join(out, 'lossy.noise.yaml'), LOSSY_NOISE);
     const argv = ['sweep', 'lossy.net.yaml', '--noise', 'lossy.noise.yaml', '--until', '3ms', '--seeds', '1..6', '--workers', '2', '--json'];

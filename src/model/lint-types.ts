@@ -14,7 +14,7 @@ import { closest } from './suggest.js';
 import type { Expr, ProgramSet, Rule, SendStep, Step } from './types.js';
 
 /** What a value is, as far as the text tells. */
-export type Kind = 'number' | 'string' | 'id' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
+export type Kind = 'number' | 'string' | 'id' | 'label' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
 
 /** A name a rule binds: a pair, a message (of a kind, maybe from one sender) or a bit. */
 export type Bound = { readonly kind: 'pair' } | { readonly kind: 'message'; readonly msgKind: string; readonly from?: string } | { readonly kind: 'bit' };
@@ -101,12 +101,13 @@ function constant(n: ExprNode): number | undefined {
 }
 
 /** A pair id is text, except where a node id is needed. */
-const text = (k: Kind): Kind => (k === 'id' ? 'string' : k);
+const text = (k: Kind): Kind => (k === 'id' || k === 'label' ? 'string' : k);
 
 const WORDS: Readonly<Record<Kind, string>> = {
   number: 'a number',
   string: 'text',
   id: 'a pair id',
+  label: 'a message kind, not a node',
   boolean: 'true or false',
   null: 'null',
   pair: 'a pair record',
@@ -195,6 +196,8 @@ export class ExprKinds {
         return 'any';
       }
       if (b?.kind === 'message' && !MESSAGE_FIELDS.includes(n.property)) return this.fields.dataKind(b.msgKind, this.rule.node, b.from, n.property);
+      // a message's kind is the one its got guard names: text that may not be a node id
+      if (b?.kind === 'message' && n.property === 'kind') return this.nodeIds.has(b.msgKind) ? 'string' : 'label';
       // own keys only: a noted field may be called "toString"
       return Object.hasOwn(FIELD_KINDS, n.property) && !(b?.kind === 'message' && n.property === 'pair') ? FIELD_KINDS[n.property] : 'any';
     }
@@ -273,7 +276,7 @@ export class ExprKinds {
       this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is the number ${n.value}`, 'write true or false, or a comparison such as m.bit == 1');
       return;
     }
-    if (k === 'string' || k === 'id' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {
+    if (k === 'string' || k === 'id' || k === 'label' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {
       this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is ${WORDS[k]}`, 'compare it with something, e.g. m.ok == 1 or p.stage == \'waiting\'');
     }
   }
@@ -298,6 +301,7 @@ export class ExprKinds {
         ? k === 'pair' ? `write ${e.compiled.source}.partner for the node at its other end`
         : k === 'message' ? `write ${e.compiled.source}.from for its sender`
         : k === 'id' && /\.id$/.test(e.compiled.source) ? `a pair id names a pair, not a node: write ${e.compiled.source.replace(/\.id$/, '.partner')} for the node at its other end`
+        : k === 'label' && /\.kind$/.test(e.compiled.source) ? `write ${e.compiled.source.replace(/\.kind$/, '.from')} for the message's sender`
         : 'write a node id'
       : want === 'id' || want === 'id-or-null' ? (k === 'pair' ? `write ${e.compiled.source}.id` : 'write a pair id (text)')
       : 'write a number';

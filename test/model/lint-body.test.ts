@@ -94,6 +94,17 @@ describe('check finds what run would refuse', () => {
     expect((await findings(text)).find((x) => x.code === 'type-mismatch')?.message).toBe('"to" needs a node id, but "quai" is not a node of the network');
   });
 
+  it('the kind of a message where a node is needed', async () => {
+    // quay's relabel rule, the last rebind of the file
+    const at = SWAP_NET.lastIndexOf('partner: m.peer');
+    const net = `${SWAP_NET.slice(0, at)}partner: m.kind${SWAP_NET.slice(at + 'partner: m.peer'.length)}`;
+    const fs = await findings(net);
+    expect(fs.map((f) => f.code)).toEqual(['type-mismatch']);
+    expect(fs[0].message).toBe('"partner" needs a node id, but `m.kind` is a message kind, not a node');
+    expect(fs[0].fix).toBe("write m.from for the message's sender");
+    await runRefuses(net, /"m\.kind" gave "swapped", which is not a node id/);
+  });
+
   it('a message field that every sender fills with text, used as a bit', async () => {
     const net = SWAP_NET.replace('data: {z: zb, x: xb, peer: quay', 'data: {z: quay, x: xb, peer: quay');
     const fs = await findings(net);

@@ -142,8 +142,11 @@ function reasonFor(net: Net, ctx: MatchContext, rule: Rule, i: number): string {
         const fresh = inStage.filter((p) => g.minWaitNs !== undefined && ctx.scope.now - p.entered < g.minWaitNs);
         const stale = inStage.filter((p) => g.maxWaitNs !== undefined && ctx.scope.now - p.entered > g.maxWaitNs);
         if (fresh.length) {
-          const due = fresh[0].entered + g.minWaitNs!;
-          text += `; ${list(fresh.map((p) => p.id))} entered stage "${g.stage}" ${formatDuration(ctx.scope.now - fresh[0].entered)} ago, less than min_wait ${formatDuration(g.minWaitNs!)} (due at ${formatDuration(due)})`;
+          const first = fresh[0];
+          const due = formatDuration(first.entered + g.minWaitNs!);
+          // a stage step runs at the node's local time, which may be ahead of the event's
+          const since = first.entered > ctx.scope.now ? `enters stage "${g.stage}" at ${formatDuration(first.entered)}, once the node's operations are done` : `entered stage "${g.stage}" ${formatDuration(ctx.scope.now - first.entered)} ago`;
+          text += `; ${list(fresh.map((p) => p.id))} ${since}, less than min_wait ${formatDuration(g.minWaitNs!)} (due at ${due})`;
         }
         if (stale.length) text += `; ${list(stale.map((p) => p.id))} has been in stage "${g.stage}" longer than max_wait ${formatDuration(g.maxWaitNs!)}`;
         return text;

@@ -7,6 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Engine, EngineEvent, World } from '../../src/engine/index.js';
 import { explainRule } from '../../src/engine/index.js';
+import { formatDuration } from '../../src/model/units.js';
 import { engineFrom, noiseWith } from './scenarios.js';
 
 /** kiln parks each pair after a gate, then acts on it once it has waited in "held". */
@@ -125,11 +126,17 @@ programs:
     const { events, world } = runUntil(engine, (ev) => fired(ev, 'park'));
     const park = events[events.length - 1];
     const rule = engine.net.rules.get('kiln')!.find((r) => r.name === 'act')!;
-    const why = explainRule(engine.net, world, 'kiln', rule);
-    expect(why.ready).toBe(false);
     const t0 = park.time + 40_000;
-    expect(why.guards[0].text).toBe('have partner weir, stage held, min_wait 3 ms as p');
-    expect(why.summary).toMatch(/#\d+ entered stage "held"/);
-    expect(why.summary).toContain(`less than min_wait 3 ms (due at ${(t0 + 3_000_000) / 1e6} ms)`);
+    const ms = formatDuration;
+    // right after park fired, the stage step lies 40 us ahead, at the node's local time
+    const before = explainRule(engine.net, world, 'kiln', rule);
+    expect(before.ready).toBe(false);
+    expect(before.guards[0].text).toBe('have partner weir, stage held, min_wait 3 ms as p');
+    expect(before.guards[0].reason).toMatch(new RegExp(`#\\d+ enters stage "held" at ${ms(t0)}, once the node's operations are done, less than min_wait 3 ms \\(due at ${ms(t0 + 3_000_000)}\\)`));
+    // once the node is free (its own wake-up at t0), the pair has waited 0 ns
+    const next = engine.step(world);
+    expect(next.event!.time).toBe(t0);
+    const after = explainRule(engine.net, next.world, 'kiln', rule);
+    expect(after.guards[0].reason).toContain(`entered stage "held" 0 ns ago, less than min_wait 3 ms (due at ${ms(t0 + 3_000_000)})`);
   });
 });

@@ -199,7 +199,9 @@ export class ExprKinds {
       // a message's kind is the one its got guard names: text that may not be a node id
       if (b?.kind === 'message' && n.property === 'kind') return this.nodeIds.has(b.msgKind) ? 'string' : 'label';
       // own keys only: a noted field may be called "toString"
-      return Object.hasOwn(FIELD_KINDS, n.property) && !(b?.kind === 'message' && n.property === 'pair') ? FIELD_KINDS[n.property] : 'any';
+      // a message's pair is a pair id or null: neither a number nor a node nor a truth value
+      if (b?.kind === 'message' && n.property === 'pair') return 'id';
+      return Object.hasOwn(FIELD_KINDS, n.property) ? FIELD_KINDS[n.property] : 'any';
     }
     if (o !== 'any') {
       this.report(e, n, 'type-mismatch', `${what} is ${WORDS[o]}, not a record, so it has no field "${n.property}"`, 'read fields of a bound pair or message, e.g. p.id or m.pair');
@@ -272,8 +274,9 @@ export class ExprKinds {
 
   /** Reports a value that can never be a truth value (text, null, a record, a list, a number other than 0 and 1). */
   truth(e: Expr, n: ExprNode, k: Kind, what: string): void {
-    if (n.type === 'literal' && typeof n.value === 'number' && n.value !== 0 && n.value !== 1) {
-      this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is the number ${n.value}`, 'write true or false, or a comparison such as m.bit == 1');
+    const c = constant(n);
+    if (c !== undefined && c !== 0 && c !== 1) {
+      this.report(e, n, 'type-mismatch', `${what} needs true/false (or a bit 0/1), but \`${this.text(e, n)}\` is the number ${c}`, 'write true or false, or a comparison such as m.bit == 1');
       return;
     }
     if (k === 'string' || k === 'id' || k === 'label' || k === 'null' || k === 'pair' || k === 'message' || k === 'list') {

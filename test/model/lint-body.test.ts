@@ -105,6 +105,15 @@ describe('check finds what run would refuse', () => {
     await runRefuses(net, /"m\.kind" gave "swapped", which is not a node id/);
   });
 
+  it("a message's pair id as an angle, and arithmetic on literals as a condition", async () => {
+    const angle = SWAP_NET.replace('correct: {pair: p, x: m.x, z: m.z}', 'gate: {op: rx, on: p, angle: m.pair}');
+    expect((await findings(angle)).map((f) => f.message)).toEqual(['the angle needs a number, but `m.pair` is a pair id']);
+    await runRefuses(angle, /angle "m\.pair" is not a number/);
+    const cond = SWAP_NET.replace('          - deliver: p\n  quay:', '          - if: "-3.14 / 2"\n            then: [{deliver: p}]\n            else: [{discard: p}]\n  quay:');
+    expect((await findings(cond)).map((f) => f.message)).toEqual(['the condition of "if" needs true/false (or a bit 0/1), but `-3.14 / 2` is the number -1.57']);
+    await runRefuses(cond, /gave -1\.57, not true or false/);
+  });
+
   it('a message field that every sender fills with text, used as a bit', async () => {
     const net = SWAP_NET.replace('data: {z: zb, x: xb, peer: quay', 'data: {z: quay, x: xb, peer: quay');
     const fs = await findings(net);

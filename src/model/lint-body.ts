@@ -5,7 +5,8 @@
  * fire again at once, for ever.
  */
 import { finding, ruleAtNode, type Facts, type Finding } from './lint-facts.js';
-import { ExprKinds, FieldIndex, stepExpressions, type Bound } from './lint-types.js';
+import { FieldIndex } from './lint-fields.js';
+import { ExprKinds, stepExpressions, type Bound } from './lint-types.js';
 import type { NoiseModel, ProgramSet, Rule, Step } from './types.js';
 
 /** Where a bound pair left the node within the body. */
@@ -70,6 +71,11 @@ class BodyCheck {
           );
         }
       }
+      // values noted now can be read by the steps after this one
+      if (s.kind === 'note') {
+        const b = env.get(s.pair);
+        if (b?.kind === 'pair') for (const k of Object.keys(s.set)) b.noted.add(k);
+      }
       const how = RELEASING[s.kind];
       if (how) for (const name of pairsActedOn(s)) if (!left.has(name)) left.set(name, { how, line: s.pos.line });
       if (s.kind === 'measure' && s.as) env.set(s.as, { kind: 'bit' });
@@ -120,10 +126,10 @@ function guardEnv(rule: Rule, kinds: ExprKinds, nodeIds: ReadonlySet<string>): M
   for (const g of rule.when) {
     if (g.kind === 'have') {
       kinds.expect(g.partner, env, 'node', '"partner"');
-      for (const n of g.as) env.set(n, { kind: 'pair' });
+      for (const n of g.as) env.set(n, { kind: 'pair', stage: g.stage, noted: new Set() });
     } else if (g.kind === 'have-id') {
       kinds.expect(g.id, env, 'id', '"id"');
-      if (g.as) env.set(g.as, { kind: 'pair' });
+      if (g.as) env.set(g.as, { kind: 'pair', stage: g.stage ?? '*', noted: new Set() });
     } else if (g.kind === 'got') {
       kinds.expect(g.from, env, 'node', '"from"');
       const from = g.from && g.from.compiled.ast.type === 'name' && nodeIds.has(g.from.compiled.ast.name) ? g.from.compiled.ast.name : undefined;

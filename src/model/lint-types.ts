@@ -7,68 +7,24 @@
  */
 import { functionSpec } from '../expr/index.js';
 import type { ExprNode } from '../expr/types.js';
-import { MESSAGE_FIELDS, PAIR_FIELDS } from './build-steps.js';
+import { MESSAGE_FIELDS } from './build-steps.js';
 import { exprPos } from './expressions.js';
-import { allSteps, finding, type Facts, type Finding } from './lint-facts.js';
+import type { FieldIndex } from './lint-fields.js';
+import { finding, type Finding } from './lint-facts.js';
 import { closest } from './suggest.js';
-import type { Expr, ProgramSet, Rule, SendStep, Step } from './types.js';
+import type { Expr, Rule, Step } from './types.js';
 
 /** What a value is, as far as the text tells. */
 export type Kind = 'number' | 'string' | 'id' | 'label' | 'boolean' | 'null' | 'pair' | 'message' | 'list' | 'any';
 
-/** A name a rule binds: a pair, a message (of a kind, maybe from one sender) or a bit. */
-export type Bound = { readonly kind: 'pair' } | { readonly kind: 'message'; readonly msgKind: string; readonly from?: string } | { readonly kind: 'bit' };
-
-/** The fields each sender of a kind sets, and the notes each node writes, gathered once. */
-export class FieldIndex {
-  private readonly notes = new Map<string, Set<string>>();
-
-  constructor(
-    ps: ProgramSet,
-    private readonly facts: Facts,
-  ) {
-    for (const program of Object.values(ps.programs)) {
-      const keys = new Set<string>();
-      for (const rule of program.rules) for (const step of allSteps(rule.do)) if (step.kind === 'note') for (const k of Object.keys(step.set)) keys.add(k);
-      this.notes.set(program.node, keys);
-    }
-  }
-
-  /** Fields a message of this kind can have at `node` (from `from`), or undefined when no rule sends it there. */
-  messageFields(msgKind: string, node: string, from: string | undefined): Set<string> | undefined {
-    const senders = this.facts.sends.filter((s) => s.step.msgKind === msgKind && (s.to === undefined || s.to === node) && (from === undefined || s.node === from));
-    if (senders.length === 0) return undefined;
-    const out = new Set(MESSAGE_FIELDS);
-    for (const s of senders) for (const k of Object.keys(s.step.data)) out.add(k);
-    return out;
-  }
-
-  /** What each send's data values are, as far as the text tells (recorded by a first pass). */
-  private readonly dataKinds = new Map<SendStep, Map<string, Kind>>();
-
-  /** Records what the data values of a send are. */
-  recordSend(step: SendStep, kinds: Map<string, Kind>): void {
-    this.dataKinds.set(step, kinds);
-  }
-
-  /** What a data field of a message of this kind at `node` holds, when every sender agrees; else 'any'. */
-  dataKind(msgKind: string, node: string, from: string | undefined, field: string): Kind {
-    let out: Kind | undefined;
-    for (const s of this.facts.sends) {
-      if (s.step.msgKind !== msgKind || (s.to !== undefined && s.to !== node) || (from !== undefined && s.node !== from)) continue;
-      const k = this.dataKinds.get(s.step)?.get(field);
-      if (k === undefined) continue;
-      if (out === undefined) out = k;
-      else if (out !== k) return 'any';
-    }
-    return out ?? 'any';
-  }
-
-  /** Fields a pair record at `node` can have: the built-in ones and every value noted there. */
-  pairFields(node: string): Set<string> {
-    return new Set([...PAIR_FIELDS, ...(this.notes.get(node) ?? [])]);
-  }
-}
+/**
+ * A name a rule binds: a pair (with the stage it was bound in, `*` for any, and the values
+ * the body has noted on it so far), a message (of a kind, maybe from one sender) or a bit.
+ */
+export type Bound =
+  | { readonly kind: 'pair'; readonly stage: string; readonly noted: Set<string> }
+  | { readonly kind: 'message'; readonly msgKind: string; readonly from?: string }
+  | { readonly kind: 'bit' };
 
 // a pair id ("mill~quay#3") is text that is never a node id: node ids have no "~"
 const FIELD_KINDS: Readonly<Record<string, Kind>> = { id: 'id', partner: 'string', stage: 'string', age: 'number', born: 'number', kind: 'string', from: 'string', to: 'string', sent: 'number' };
@@ -184,14 +140,18 @@ export class ExprKinds {
     const at = { start: n.end - n.property.length };
     if (o === 'pair' || o === 'message') {
       const b = n.object.type === 'name' ? env.get(n.object.name) : undefined;
-      const known = !b ? undefined : b.kind === 'pair' ? this.fields.pairFields(this.rule.node) : b.kind === 'message' ? this.fields.messageFields(b.msgKind, this.rule.node, b.from) : undefined;
+      const known = !b ? undefined : b.kind === 'pair' ? this.fields.pairFields(this.rule.node, b.stage, b.noted) : b.kind === 'message' ? this.fields.messageFields(b.msgKind, this.rule.node, b.from) : undefined;
       if (known && !known.has(n.property)) {
         const near = closest(n.property, known);
         const hint = near ? `did you mean "${near}"? ` : '';
         if (b?.kind === 'message') {
           this.report(e, at, 'message-field-unknown', `no sender of "${b.msgKind}" to ${this.rule.node} sets the field "${n.property}" read in ${what}.${n.property} (${hint}its fields: ${[...known].sort().join(', ')})`, near ? `write ${this.text(e, n.object)}.${near}, or add "${n.property}" to the data of every send of "${b.msgKind}"` : `add "${n.property}" to the data of the sends of "${b.msgKind}", or read a field they set`);
         } else {
-          this.report(e, at, 'pair-field-unknown', `no rule at ${this.rule.node} notes "${n.property}" on a pair, so ${what}.${n.property} has no value (${hint}its fields: ${[...known].sort().join(', ')})`, near ? `write ${this.text(e, n.object)}.${near}` : `store it first with "note: {pair: ..., set: {${n.property}: ...}}", or read a field the pair has`);
+          const stage = b?.kind === 'pair' && b.stage !== '*' ? b.stage : undefined;
+          const why = this.fields.notedAt(this.rule.node, n.property)
+            ? `pairs bound in stage "${stage}" at ${this.rule.node} do not carry "${n.property}" at this point (it is noted on pairs in other stages, or later)`
+            : `no rule at ${this.rule.node} notes "${n.property}" on a pair`;
+          this.report(e, at, 'pair-field-unknown', `${why}, so ${what}.${n.property} has no value (${hint}its fields: ${[...known].sort().join(', ')})`, near ? `write ${this.text(e, n.object)}.${near}` : `note it first with "note: {pair: ${this.text(e, n.object)}, set: {${n.property}: ...}}" before this point, or read a field the pair has`);
         }
         return 'any';
       }

@@ -3,6 +3,7 @@
  * stopped the run with a program error (found by mutating the demos). Each is now a finding
  * at its line with a fix, and each is shown to be real by running it.
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/run-cli.js';
 import { noiseWith, SWAP_NET } from '../engine/scenarios.js';
@@ -67,6 +68,21 @@ describe('check finds what run would refuse', () => {
     expect(fs.map((f) => f.code)).toEqual(['pair-field-unknown']);
     expect(fs[0].message).toContain('no rule at ridge notes "joined" on a pair');
     await runRefuses(net, /no field "joined" in `p`/);
+  });
+
+  it('a noted field read before the note, or on a pair in a stage that never carries it', async () => {
+    const demo = readFileSync('demos/lost-message/lost.net.yaml', 'utf8');
+    // start notes the probe's id on keep, then moves keep to "waiting": give-up may read
+    // keep.probe there, but start itself may not read it before its note, nor on the probe
+    expect(await findings(demo)).toEqual([]);
+    const early = demo.replace('          - note: {pair: keep, set: {probe: probe.id}}\n', '').replace('          - stage: {pair: keep, to: waiting}\n', '          - log: "{keep.probe}"\n          - note: {pair: keep, set: {probe: probe.id}}\n          - stage: {pair: keep, to: waiting}\n');
+    expect(early).not.toBe(demo);
+    const fs = await findings(early);
+    expect(fs.map((f) => f.code)).toEqual(['pair-field-unknown']);
+    expect(fs[0].message).toContain('pairs bound in stage "link" at vale do not carry "probe" at this point');
+    await runRefuses(early, /no field "probe" in `keep`/, readFileSync('demos/lost-message/lost.noise.yaml', 'utf8'));
+    const probe = demo.replace('data: {bit: bit, probe: probe.id}', 'data: {bit: bit, probe: probe.probe}');
+    expect((await findings(probe)).map((f) => f.code)).toEqual(['pair-field-unknown']);
   });
 
   it('the field of a literal, a pair where a number or a truth value is needed', async () => {

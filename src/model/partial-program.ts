@@ -61,6 +61,7 @@ export function validateProgramParts(src: SourceDoc, errors: InputError[]): Part
   for (const [name, value] of Object.entries(map(top.roles))) {
     const shell = check<{ params?: string[]; rules: unknown[] }>(parts.roleShell, value, ['roles', name]);
     const rules = sparse(list(isMapping(value) ? value.rules : undefined), (r, i) => check<RawRule>(parts.rule, r, ['roles', name, 'rules', i]));
+    // filter skips holes: fewer entries than the length means a rule was left out
     if (!shell || rules.filter(() => true).length !== rules.length) brokenRoles.add(name);
     roles[name] = { ...(shell?.params ? { params: shell.params } : {}), rules };
   }

@@ -85,7 +85,7 @@ export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions)
   // before Ink is loaded
   for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (ciSet(process.env, key)) delete process.env[key];
   const { Controller, startDebugger, wantsColour } = await import('../../tui/index.js');
-  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: saveWriter(io, opts.inputFiles ?? []), readFile: (p) => io.readFile(p) });
+  const controller = new Controller(session, { colour: wantsColour(io.env), autoplay: opts.autoplay, writeFile: saveWriter(io, opts.inputFiles ?? []), readFile: (p) => readInput(io, p, 'replay file') });
   // a far --at is a long jump: it runs in slices once the screen is up, with its progress shown
   if (opts.at !== undefined) controller.runLong(session.startGoto(opts.at + 1));
   onCrashSaveReplay((why) => {

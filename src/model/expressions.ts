@@ -125,6 +125,24 @@ export function applyEdits(w: WrittenText): string {
 }
 
 /**
+ * Parsed expressions by text: a role's expressions are the same text at every node that plays
+ * it, and a compiled expression is a frozen value, so one parse serves them all. Bounded, so a
+ * long-lived process that loads many files keeps only the latest texts.
+ */
+const parsed = new Map<string, Compiled>();
+const PARSED_KEPT = 20_000;
+
+function parseShared(source: string): Compiled {
+  let c = parsed.get(source);
+  if (c === undefined) {
+    c = parseExpr(source);
+    if (parsed.size >= PARSED_KEPT) parsed.clear();
+    parsed.set(source, c);
+  }
+  return c;
+}
+
+/**
  * Compiles expressions of one file and records what is wrong with them. With `args` (a
  * role's parameter values for one node), each expression is compiled as written, then
  * again with the values in place of the parameters, as a hand-written rule would say it.
@@ -246,15 +264,15 @@ export class ExprCompiler {
     const pos = typeof raw === 'string' ? this.src.textStartAt(path) : this.src.posAt(path);
     let compiled: Compiled;
     try {
-      compiled = parseExpr(source);
+      compiled = parseShared(source);
     } catch (err) {
       this.parseError(err, pos, path, source);
       return undefined;
     }
     const e: Expr = { compiled, pos };
     this.checkCalls(e, path);
-    const sub = this.substituted(source, [compiled.ast], pos, path, parseExpr);
-    return sub ? { compiled: parseExpr(sub.text), pos, written: sub.w } : e;
+    const sub = this.substituted(source, [compiled.ast], pos, path, parseShared);
+    return sub ? { compiled: parseShared(sub.text), pos, written: sub.w } : e;
   }
 
   /** Splits a log text into literal parts and expressions (`{expr}` holes). */

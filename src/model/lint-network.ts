@@ -7,17 +7,33 @@ import { literalValue } from './expressions.js';
 import { finding, ruleAtNode, type Facts, type Finding } from './lint-facts.js';
 import type { LinkDef, ProgramSet } from './types.js';
 
-/** Link ids by node pair, and the nodes each node can reach over fiber. */
+/** Link ids by node pair, and which nodes fiber connects (one label per connected part). */
 class Graph {
   private readonly byPair = new Map<string, LinkDef>();
-  private readonly adjacent = new Map<string, Set<string>>();
+  private readonly part = new Map<string, number>();
 
   constructor(ps: ProgramSet) {
-    for (const n of ps.nodes) this.adjacent.set(n.id, new Set());
+    const adjacent = new Map<string, string[]>();
+    for (const n of ps.nodes) adjacent.set(n.id, []);
     for (const l of ps.links) {
       this.byPair.set(l.id, l);
-      this.adjacent.get(l.ends[0])?.add(l.ends[1]);
-      this.adjacent.get(l.ends[1])?.add(l.ends[0]);
+      adjacent.get(l.ends[0])?.push(l.ends[1]);
+      adjacent.get(l.ends[1])?.push(l.ends[0]);
+    }
+    // label the connected parts once, by a search with an index for a queue: linear in the graph
+    let label = 0;
+    for (const start of adjacent.keys()) {
+      if (this.part.has(start)) continue;
+      const queue = [start];
+      this.part.set(start, label);
+      for (let head = 0; head < queue.length; head++) {
+        for (const m of adjacent.get(queue[head]) ?? []) {
+          if (this.part.has(m)) continue;
+          this.part.set(m, label);
+          queue.push(m);
+        }
+      }
+      label++;
     }
   }
 
@@ -25,31 +41,9 @@ class Graph {
     return this.byPair.get(a < b ? `${a}~${b}` : `${b}~${a}`);
   }
 
-  private components?: Map<string, number>;
-
-  /** Whether fiber joins the two nodes: both in one connected component, labelled once. */
   reachable(from: string, to: string): boolean {
-    if (!this.components) {
-      const label = new Map<string, number>();
-      let next = 0;
-      for (const start of this.adjacent.keys()) {
-        if (label.has(start)) continue;
-        const c = next++;
-        label.set(start, c);
-        const stack = [start];
-        while (stack.length > 0) {
-          for (const m of this.adjacent.get(stack.pop() as string) ?? []) {
-            if (!label.has(m)) {
-              label.set(m, c);
-              stack.push(m);
-            }
-          }
-        }
-      }
-      this.components = label;
-    }
-    const a = this.components.get(from);
-    return a !== undefined && a === this.components.get(to);
+    const p = this.part.get(from);
+    return p !== undefined && p === this.part.get(to);
   }
 }
 

@@ -3,11 +3,12 @@ import type { Net } from '../engine/index.js';
 
 /** Sites in network order: a chain from the end the file names first, otherwise the program set's order. */
 export function siteOrder(net: Net): string[] {
-  const declared = net.programSet.nodes.map((n) => n.id);
-  return chain(net, declared) ?? declared;
+  return chainOrder(net) ?? net.programSet.nodes.map((n) => n.id);
 }
 
-function chain(net: Net, declared: readonly string[]): string[] | undefined {
+/** The sites of a chain in order from the end the file names first, or undefined when the network is not a chain. */
+export function chainOrder(net: Net): string[] | undefined {
+  const declared = net.programSet.nodes.map((n) => n.id);
   if (declared.length < 2 || net.links.size !== declared.length - 1) return undefined;
   const nbrs = new Map<string, string[]>(declared.map((id) => [id, []]));
   for (const { def } of net.links.values()) {

@@ -53,18 +53,8 @@ export interface ReplayFile {
   checksum: string;
 }
 
-/** An `@1` file as it stands on disk (one object per event). */
-export interface ReplayFileV1 {
-  format: string;
-  tool: { name: string; version: string };
-  inputs: { program_set: ReplayInput; noise: ReplayInput | null };
-  seed: number;
-  breakpoints: string[];
-  expectations: string[];
-  stop: Stop;
-  events: ReplayEvent[];
-  checksum: string;
-}
+/** An `@1` file as it stands on disk (one object per event, no limits or final record). */
+export type ReplayFileV1 = Omit<ReplayFile, 'limits' | 'final' | 'events'> & { events: ReplayEvent[] };
 
 export function sha256(text: string): string {
   return createHash('sha256').update(text, 'utf8').digest('hex');

@@ -1,23 +1,26 @@
 /**
  * The debugger as an Ink app: one top-level key handler that forwards to the controller, a
- * timer for autoplay, the terminal size, and the frame view. All state lives in the
- * controller; this component re-renders when it says something changed.
+ * timer for autoplay, the terminal size, and the frame drawn on the screen (screen.ts) after
+ * every change. All state lives in the controller; this component re-renders when it says
+ * something changed. Ink itself draws nothing: it keeps raw mode, the keys and the exit.
  */
 import { useApp, useInput, useStdin, type Key } from 'ink';
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useRef, useState } from 'react';
 import type { Controller } from './controller.js';
-import { FrameView } from './components/frame-view.js';
 import { buildFrame } from './frame.js';
+import type { Screen } from './screen.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
 
 export interface DebuggerAppProps {
   readonly controller: Controller;
+  /** Where frames are drawn: the terminal, or memory in tests. */
+  readonly screen: Screen;
   /** A fixed size instead of the terminal's (tests). */
   readonly size?: TerminalSize;
 }
 
 /** The debugger's root component. */
-export function DebuggerApp({ controller, size }: DebuggerAppProps) {
+export function DebuggerApp({ controller, screen, size }: DebuggerAppProps) {
   const { exit } = useApp();
   const { isRawModeSupported } = useStdin();
   const term = useTerminalSize(size);
@@ -40,5 +43,10 @@ export function DebuggerApp({ controller, size }: DebuggerAppProps) {
     return () => clearInterval(timer);
   }, [controller, playing, rate]);
 
-  return <FrameView frame={buildFrame(controller, term.columns, term.rows)} colour={controller.colour} />;
+  // after every render: a version bump, a resize or a new prop
+  useLayoutEffect(() => {
+    screen.draw(buildFrame(controller, term.columns, term.rows), controller.colour);
+  });
+
+  return null;
 }

@@ -6,6 +6,7 @@
 import { render } from 'ink';
 import type { Controller } from './controller.js';
 import { DebuggerApp } from './app.js';
+import { TerminalScreen } from './screen.js';
 
 export interface TerminalStreams {
   readonly stdin: NodeJS.ReadStream;
@@ -31,18 +32,18 @@ export async function startDebugger(controller: Controller, io: TerminalStreams)
     }
   };
   out.write(ALT_ON);
-  const instance = render(<DebuggerApp controller={controller} />, {
+  const screen = new TerminalScreen(out);
+  const instance = render(<DebuggerApp controller={controller} screen={screen} />, {
     stdin: io.stdin,
     stdout: out,
     stderr: io.stderr,
     exitOnCtrlC: false,
     patchConsole: false,
-    // Ink 6.8's incremental mode draws every changed row one row too low after the first
-    // frame (seen in tmux): the standard mode rewrites the frame, which at rows − 1 is cheap
+    // the screen draws the frames; Ink's own output stays empty
     incrementalRendering: false,
-    maxFps: 60,
   });
   const onSignal = (sig: keyof typeof SIGNALS) => {
+    screen.stop();
     instance.unmount();
     restore();
     process.exit(128 + SIGNALS[sig]);
@@ -53,13 +54,10 @@ export async function startDebugger(controller: Controller, io: TerminalStreams)
     return [sig, h] as const;
   });
   process.on('exit', restore);
-  // after a resize, rows drawn at the old size would linger: clear them before Ink redraws
-  const onResize = () => out.write('\x1b[2J');
-  out.on('resize', onResize);
   try {
     await instance.waitUntilExit();
   } finally {
-    out.off('resize', onResize);
+    screen.stop();
     for (const [sig, h] of handlers) process.off(sig, h);
     instance.unmount();
     restore();

@@ -1,7 +1,7 @@
-import { cleanup, render } from 'ink-testing-library';
+import { cleanup } from 'ink-testing-library';
 import { afterEach, describe, expect, it } from 'vitest';
 import { formatDuration } from '../../src/model/units.js';
-import { DebuggerApp } from '../../src/tui/app.js';
+import { openApp } from './app-harness.js';
 import type { Controller } from '../../src/tui/controller.js';
 import { DISAGREE_NET, noiseWith, purificationNet, SWAP_NET } from '../engine/scenarios.js';
 import { controllerFor, KEY, waitFor } from './helpers.js';
@@ -27,10 +27,7 @@ function columnText(frame: string, side: 'left' | 'right'): string {
 }
 
 function open(c: Controller, columns = 100, rows = 40) {
-  const r = render(<DebuggerApp controller={c} size={{ columns, rows }} />);
-  const frame = () => r.lastFrame() ?? '';
-  const until = (what: string | RegExp) => waitFor(() => (typeof what === 'string' ? frame().includes(what) : what.test(frame())), frame);
-  return { ...r, frame, until };
+  return openApp(c, columns, rows);
 }
 
 /** Writes one key and waits until the controller has handled it. */

@@ -3,9 +3,9 @@
  * by role with the values in the heading and names each rule's line in its role; rule
  * names stay plain for breakpoints and completion; a program error names the role's rule.
  */
-import { cleanup, render } from 'ink-testing-library';
+import { cleanup } from 'ink-testing-library';
 import { afterEach, describe, expect, it } from 'vitest';
-import { DebuggerApp } from '../../src/tui/app.js';
+import { openApp } from './app-harness.js';
 import { runCommand } from '../../src/tui/commands.js';
 import { complete } from '../../src/tui/complete.js';
 import type { Controller } from '../../src/tui/controller.js';
@@ -13,7 +13,7 @@ import { rulesView } from '../../src/tui/views/rules.js';
 import { lineText } from '../../src/tui/lines.js';
 import { loadDemo } from '../demos/demo-files.js';
 import { fixture, where } from '../model/helpers.js';
-import { controllerFor, waitFor } from './helpers.js';
+import { controllerFor } from './helpers.js';
 
 afterEach(() => cleanup());
 
@@ -21,10 +21,7 @@ const ROLES = fixture('roles-chain.net.yaml');
 const NOISE = 'format: bellstep/noise@1\nseed: 9\ndefaults:\n  link: {pair: {werner: 0.95}, success: 0.3}\n';
 
 function open(c: Controller, columns = 120, rows = 60) {
-  const r = render(<DebuggerApp controller={c} size={{ columns, rows }} />);
-  const frame = () => r.lastFrame() ?? '';
-  const until = (what: string) => waitFor(() => frame().includes(what), frame);
-  return { ...r, frame, until };
+  return openApp(c, columns, rows);
 }
 
 /** The pane text of the rules of `site` at the cursor, as the pane would show it, one row per line. */

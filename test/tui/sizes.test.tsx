@@ -3,9 +3,9 @@
  * rows), no line is wider than the terminal (long text wraps or ends with …), and the help
  * and list overlays replace the panes instead of drawing over them.
  */
-import { cleanup, render } from 'ink-testing-library';
+import { cleanup } from 'ink-testing-library';
 import { afterEach, describe, expect, it } from 'vitest';
-import { DebuggerApp } from '../../src/tui/app.js';
+import { openApp } from './app-harness.js';
 import type { Controller } from '../../src/tui/controller.js';
 import { buildFrame } from '../../src/tui/frame.js';
 import { DISAGREE_NET, noiseWith } from '../engine/scenarios.js';
@@ -31,8 +31,8 @@ async function stalled(): Promise<Controller> {
 describe('the frame at 80×24, 120×40 and 200×60', () => {
   it.each(SIZES)('at %i×%i fills rows − 1 exactly and keeps every line within the width', async (cols, rows) => {
     const c = await stalled();
-    const r = render(<DebuggerApp controller={c} size={{ columns: cols, rows }} />);
-    const frame = () => r.lastFrame() ?? '';
+    const r = openApp(c, cols, rows);
+    const frame = r.frame;
     await waitFor(() => frame().includes('│'), frame);
     const lines = frame().split('\n');
     expect(lines).toHaveLength(rows - 1);
@@ -53,8 +53,8 @@ describe('the frame at 80×24, 120×40 and 200×60', () => {
 
   it.each(SIZES)('at %i×%i shows the help and the list in place of the panes', async (cols, rows) => {
     const c = await stalled();
-    const r = render(<DebuggerApp controller={c} size={{ columns: cols, rows }} />);
-    const frame = () => r.lastFrame() ?? '';
+    const r = openApp(c, cols, rows);
+    const frame = r.frame;
     await waitFor(() => frame().includes('│'), frame);
     r.stdin.write('?');
     await waitFor(() => frame().includes('step one event forward'), frame);

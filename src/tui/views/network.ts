@@ -7,6 +7,10 @@ import { plural } from '../../model/words.js';
 import type { Net, World } from '../../engine/index.js';
 import type { Line, Seg } from '../lines.js';
 import { pad, width } from '../text.js';
+import { chainOrder } from '../../report/site-order.js';
+
+/** The sites of a chain in order from one end (shared with the chart). */
+export { chainOrder };
 
 export interface PaneView {
   /** Every line of the pane's content (the pane shows a window of them). */
@@ -25,31 +29,6 @@ export function linkPairCount(net: Net, w: World, linkId: string): number {
   let n = 0;
   for (const p of Object.values(w.nodes[a]?.pairs ?? {})) if (p.link === linkId && p.partner === b) n++;
   return n;
-}
-
-/** The sites of a chain in order from one end, or undefined when the network is not a chain. */
-export function chainOrder(net: Net): string[] | undefined {
-  const ids = net.nodeIds;
-  if (ids.length < 2 || net.links.size !== ids.length - 1) return undefined;
-  const nbrs = new Map<string, string[]>(ids.map((id) => [id, []]));
-  for (const { def } of net.links.values()) {
-    nbrs.get(def.ends[0])!.push(def.ends[1]);
-    nbrs.get(def.ends[1])!.push(def.ends[0]);
-  }
-  if ([...nbrs.values()].some((n) => n.length > 2 || n.length === 0)) return undefined;
-  const start = ids.find((id) => nbrs.get(id)!.length === 1);
-  if (!start) return undefined;
-  const order = [start];
-  let prev = '';
-  let cur = start;
-  for (;;) {
-    const next = nbrs.get(cur)!.find((n) => n !== prev);
-    if (next === undefined) break;
-    order.push(next);
-    prev = cur;
-    cur = next;
-  }
-  return order.length === ids.length ? order : undefined;
 }
 
 function linkId(a: string, b: string): string {

@@ -271,6 +271,28 @@ function putStr(str: string): void {
   for (let i = 0; i < str.length; i++) put(str.charCodeAt(i));
 }
 
+/** A digest as two 32-bit halves, updated in place. */
+export interface DigestHalves {
+  hi: number;
+  lo: number;
+}
+
+/** Adds a number to an ascending list unless it is there (the lists are a few items long). */
+function addSortedNumber(list: number[], x: number): void {
+  let i = list.length;
+  while (i > 0 && list[i - 1] > x) i--;
+  if (i > 0 && list[i - 1] === x) return;
+  list.splice(i, 0, x);
+}
+
+/** Adds a name to a list in code-unit order (as `Array.prototype.sort` orders strings) unless it is there. */
+function addSortedName(list: string[], x: string): void {
+  let i = list.length;
+  while (i > 0 && list[i - 1] > x) i--;
+  if (i > 0 && list[i - 1] === x) return;
+  list.splice(i, 0, x);
+}
+
 /**
  * The digest of `bellstep/replay@2` files: the same state as the first (clock, generator,
  * counters, every touched node with its pairs and inbox, their clusters' density matrices
@@ -278,10 +300,10 @@ function putStr(str: string): void {
  * (nodes, stages, links) mixed in by their own cached hash and without the one-line summary,
  * which is derived from that state. The words are gathered first and mixed in one loop.
  */
-export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEvent, w: World): [number, number] {
+export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World): void {
   nw = 0;
-  put(prevHi);
-  put(prevLo);
+  put(chain.hi);
+  put(chain.lo);
   putNum(ev.index);
   putNum(w.time);
   putNum(w.seq);
@@ -320,7 +342,7 @@ export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEve
       putNum(p.born);
       putNum(p.order);
       put(hashOf(p.link));
-      addOnce(links, p.link);
+      addSortedName(links, p.link);
       for (const k in p.notes) {
         put(hashOf(k));
         putStr(JSON.stringify(p.notes[k]));
@@ -328,7 +350,7 @@ export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEve
       const qs = w.qubits.get(p.qubit);
       if (qs) {
         putNum(qs.decayedTo);
-        addOnce(clusters, qs.cluster);
+        addSortedNumber(clusters, qs.cluster);
       }
     }
     put(n.inbox.length);
@@ -338,7 +360,6 @@ export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEve
     put(snd.id);
     putNum(snd.arrives);
   }
-  if (clusters.length > 1) clusters.sort((x, y) => x - y);
   for (const cid of clusters) {
     const cl = w.clusters.get(cid);
     if (!cl) continue;
@@ -346,11 +367,14 @@ export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEve
     put(cl.qubits.length);
     for (const q of cl.qubits) put(q);
     const d = cl.rho.data;
-    const ws = new Int32Array(d.buffer, d.byteOffset, d.length * 2);
-    put(ws.length);
-    for (let i = 0; i < ws.length; i++) put(ws[i]);
+    // each number's two 32-bit words, low word first (the order of an Int32Array view)
+    put(d.length * 2);
+    for (let i = 0; i < d.length; i++) {
+      f64[0] = d[i];
+      put(u32[0]);
+      put(u32[1]);
+    }
   }
-  if (links.length > 1) links.sort();
   for (const lid of links) {
     const l = w.links[lid];
     if (!l) continue;
@@ -376,7 +400,8 @@ export function eventDigestHalves2(prevHi: number, prevLo: number, ev: EngineEve
     b = Math.imul(b ^ x, 0x5bd1e995);
     b ^= b >>> 15;
   }
-  return [a >>> 0, b >>> 0];
+  chain.hi = a >>> 0;
+  chain.lo = b >>> 0;
 }
 
 function byName(a: number, b: number): number {

@@ -43,6 +43,11 @@ export interface ReplayHead {
   limits: ReplayLimits;
 }
 
+/** Something whose one-line text is built when read (an applied event). */
+export interface SummaryOf {
+  readonly summary: string;
+}
+
 /** One block line, as it stands in the file. */
 interface BlockLine {
   first: number;
@@ -74,7 +79,7 @@ export class ReplayWriter {
   private readonly recentNode: string[] = new Array(RECENT);
   private readonly recentKind: string[] = new Array(RECENT);
   /** The last events' texts, or how to make them (an event's text is built only if it ends up in the file). */
-  private readonly recentThunk: (string | null | (() => string))[] = new Array(RECENT);
+  private readonly recentThunk: (string | null | SummaryOf)[] = new Array(RECENT);
   private finished = false;
 
   constructor(
@@ -107,7 +112,7 @@ export class ReplayWriter {
   }
 
   /** Adds the next event; `hi` and `lo` are its digest's halves. */
-  add(time: number, node: string, kind: string, hi: number, lo: number, summary: string | null | (() => string)): void {
+  add(time: number, node: string, kind: string, hi: number, lo: number, summary: string | null | SummaryOf): void {
     const n = this.nodeIndex.get(node);
     const k = KINDS.indexOf(kind);
     if (n === undefined || k < 0 || time < this.lastTime) throw new Error(`replay: cannot record an event at ${node} (${kind}, t=${time})`);
@@ -156,7 +161,7 @@ export class ReplayWriter {
     for (let i = Math.max(0, this.count - RECENT); i < this.count; i++) {
       const k = i % RECENT;
       const t = this.recentThunk[k];
-      recent.push({ index: i, time_ns: this.recentTime[k], node: this.recentNode[k], kind: this.recentKind[k], summary: typeof t === 'function' ? t() : t, digest: hex(this.recentHi[k], this.recentLo[k]) });
+      recent.push({ index: i, time_ns: this.recentTime[k], node: this.recentNode[k], kind: this.recentKind[k], summary: t !== null && typeof t === 'object' ? t.summary : t, digest: hex(this.recentHi[k], this.recentLo[k]) });
     }
     const tail = recent.map((e) => `    ${JSON.stringify(e)}`).join(',\n');
     this.out(

@@ -11,7 +11,7 @@ import { basename } from 'node:path';
 import type { Engine, EngineEvent, World } from '../engine/index.js';
 import { InputError } from '../model/errors.js';
 import type { ProgramSet, NoiseModel } from '../model/types.js';
-import { eventDigestHalves, eventDigestHalves2, GENESIS_DIGEST } from './digest.js';
+import { eventDigestHalves, eventDigestInto2, GENESIS_DIGEST } from './digest.js';
 import { ListEvents, type ReplayEvents } from './replay-columns.js';
 import { checksumV2, decodeEvents, REPLAY_FORMAT_V2, ReplayWriter, type ReplayFinal, type ReplayHead, type ReplayLimits } from './replay-v2.js';
 import type { Stop } from './summary.js';
@@ -159,7 +159,8 @@ export class DigestChain {
 
   /** Moves the chain past an event without building its record. */
   advance(ev: EngineEvent, w: World): void {
-    [this.hi, this.lo] = this.version === 1 ? eventDigestHalves(this.hi, this.lo, ev, w) : eventDigestHalves2(this.hi, this.lo, ev, w);
+    if (this.version === 2) eventDigestInto2(this, ev, w);
+    else [this.hi, this.lo] = eventDigestHalves(this.hi, this.lo, ev, w);
   }
 
   /** The digest after the last event, as 16 hex digits. */
@@ -215,7 +216,7 @@ export class Recorder {
   add(ev: EngineEvent, w: World): void {
     this.chain.advance(ev, w);
     // the text is built only for the events that end up among the file's last ones
-    this.writer.add(ev.time, ev.node, ev.type, this.chain.hi, this.chain.lo, () => ev.summary);
+    this.writer.add(ev.time, ev.node, ev.type, this.chain.hi, this.chain.lo, ev);
   }
 
   /** Events recorded so far. */

@@ -136,7 +136,8 @@ const RSS_CHILD = join(here, 'rss-child.js');
 /** Wall time (ms) and peak resident memory (KiB) of one `bellstep` process. */
 function cli(args: readonly string[]): { ms: number; maxRssKb: number; ok: boolean } {
   const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, [RSS_CHILD, BIN, ...args], { encoding: 'utf8', stdio: ['ignore', 'ignore', 'pipe'], env: { ...process.env, NODE_ENV: 'production' } });
+  // stdout is a pipe, as when CI reads `run --json`: a pipe that held the output in memory would show here
+  const r = spawnSync(process.execPath, [RSS_CHILD, BIN, ...args], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], maxBuffer: 1 << 30, env: { ...process.env, NODE_ENV: 'production' } });
   const ms = Number(process.hrtime.bigint() - t0) / 1e6;
   const m = /max-rss-kb=(\d+)/.exec(r.stderr ?? '');
   return { ms, maxRssKb: m ? Number(m[1]) : NaN, ok: r.status === 0 || r.status === 1 };

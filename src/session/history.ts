@@ -386,7 +386,9 @@ export class History {
     this.focus = n;
     const i = n - this.lo;
     if (i >= 0 && i < this.seg.length) return this.seg[i];
-    const r = n === this.frontier ? { world: this.frontierWorld, event: null } : this.replayTo(n);
+    // a keyframe is the world itself; the event that led to it is recomputed only if a pane asks
+    const kw = this.keyframes.get(n);
+    const r = n === this.frontier ? { world: this.frontierWorld, event: null } : kw ? { world: kw.world, event: null } : this.replayTo(n);
     if (r.event) this.cachedEvent = { n, event: r.event };
     this.lo = n;
     this.seg = [r.world];

@@ -84,6 +84,26 @@ describe('rewind', () => {
     expect(s.history.timeOf(s.cursor)).toBeGreaterThan(t);
   });
 
+  it('lands on a held keyframe without re-simulating, and still shows the event that led there', () => {
+    const engine = engineFrom(SWAP_NET, NOISY(4, 0.95));
+    const ref = reference(engine, 4, 300);
+    const s = new Session(engine, { seed: 4, window: 16, keyframeInterval: 32 });
+    s.goto(290);
+    expect(s.history.keyframe(128)).toBeDefined();
+    let stepped = 0;
+    const advance = engine.advance.bind(engine);
+    engine.advance = (...args: Parameters<Engine['advance']>) => {
+      stepped += args[1];
+      return advance(...args);
+    };
+    s.goto(128);
+    expect(stepped).toBe(0);
+    expect(bits(s.world())).toBe(ref[128]);
+    // the event pane's line is recomputed when asked, and is the 128th event (#127)
+    expect(s.event()?.index).toBe(127);
+    engine.advance = advance;
+  });
+
   it('keeps the whole history within its budget on a long run, keyframes dense near the cursor and sparse far back', () => {
     const budget = 2_000_000;
     const s = new Session(engineFrom(SWAP_NET), { window: 32, keyframeInterval: 8, budgetBytes: budget });

@@ -240,17 +240,17 @@ function hashOf(s: string): number {
   return v;
 }
 
-/** The words the second digest mixes, collected first and mixed in one tight loop at the end. */
-let words = new Int32Array(4096);
-let nw = 0;
+/**
+ * The running mix of the second digest: the same steps as `Hasher.int`, word by word, on
+ * module state (one digest is taken at a time) so that nothing is gathered or allocated.
+ */
+let ha = 0;
+let hb = 0;
 
 function put(x: number): void {
-  if (nw === words.length) {
-    const grown = new Int32Array(words.length * 2);
-    grown.set(words);
-    words = grown;
-  }
-  words[nw++] = x;
+  ha = Math.imul(ha ^ x, 0x01000193);
+  hb = Math.imul(hb ^ x, 0x5bd1e995);
+  hb ^= hb >>> 15;
 }
 
 const f64 = new Float64Array(1);
@@ -266,9 +266,45 @@ function putNum(x: number): void {
   }
 }
 
+/** Mixes 32-bit words in one loop on locals (the bulk of a digest: strings and matrices). */
+function putWords(v: Int32Array, n: number): void {
+  let a = ha;
+  let b = hb;
+  for (let i = 0; i < n; i++) {
+    const x = v[i];
+    a = Math.imul(a ^ x, 0x01000193);
+    b = Math.imul(b ^ x, 0x5bd1e995);
+    b ^= b >>> 15;
+  }
+  ha = a;
+  hb = b;
+}
+
 function putStr(str: string): void {
   put(str.length);
-  for (let i = 0; i < str.length; i++) put(str.charCodeAt(i));
+  let a = ha;
+  let b = hb;
+  for (let i = 0; i < str.length; i++) {
+    const x = str.charCodeAt(i);
+    a = Math.imul(a ^ x, 0x01000193);
+    b = Math.imul(b ^ x, 0x5bd1e995);
+    b ^= b >>> 15;
+  }
+  ha = a;
+  hb = b;
+}
+
+/** A matrix copied into scratch (one memcpy) and mixed as the 32-bit words of that copy, low word first. */
+let scratch = new Float64Array(512);
+let scratchWords = new Int32Array(scratch.buffer);
+
+function putFloats(d: Float64Array): void {
+  if (d.length > scratch.length) {
+    scratch = new Float64Array(d.length);
+    scratchWords = new Int32Array(scratch.buffer);
+  }
+  scratch.set(d);
+  putWords(scratchWords, d.length * 2);
 }
 
 /** A digest as two 32-bit halves, updated in place. */
@@ -277,20 +313,32 @@ export interface DigestHalves {
   lo: number;
 }
 
-/** Adds a number to an ascending list unless it is there (the lists are a few items long). */
-function addSortedNumber(list: number[], x: number): void {
-  let i = list.length;
-  while (i > 0 && list[i - 1] > x) i--;
-  if (i > 0 && list[i - 1] === x) return;
-  list.splice(i, 0, x);
+/**
+ * The clusters and links an event touched, kept in ascending order as they are found (the
+ * lists are a few items long), with their own counts: no array is resized on the hot path.
+ */
+const touchedClusters: number[] = [];
+const touchedLinks: string[] = [];
+let nClusters = 0;
+let nLinks = 0;
+
+function touchCluster(x: number): void {
+  let i = nClusters;
+  while (i > 0 && touchedClusters[i - 1] > x) i--;
+  if (i > 0 && touchedClusters[i - 1] === x) return;
+  for (let j = nClusters; j > i; j--) touchedClusters[j] = touchedClusters[j - 1];
+  touchedClusters[i] = x;
+  nClusters++;
 }
 
-/** Adds a name to a list in code-unit order (as `Array.prototype.sort` orders strings) unless it is there. */
-function addSortedName(list: string[], x: string): void {
-  let i = list.length;
-  while (i > 0 && list[i - 1] > x) i--;
-  if (i > 0 && list[i - 1] === x) return;
-  list.splice(i, 0, x);
+/** Links in code-unit order (as `Array.prototype.sort` orders strings). */
+function touchLink(x: string): void {
+  let i = nLinks;
+  while (i > 0 && touchedLinks[i - 1] > x) i--;
+  if (i > 0 && touchedLinks[i - 1] === x) return;
+  for (let j = nLinks; j > i; j--) touchedLinks[j] = touchedLinks[j - 1];
+  touchedLinks[i] = x;
+  nLinks++;
 }
 
 /**
@@ -298,10 +346,11 @@ function addSortedName(list: string[], x: string): void {
  * counters, every touched node with its pairs and inbox, their clusters' density matrices
  * bit for bit, their links, the sends and the deliveries), chained the same way, with names
  * (nodes, stages, links) mixed in by their own cached hash and without the one-line summary,
- * which is derived from that state. The words are gathered first and mixed in one loop.
+ * which is derived from that state. Words are mixed as they are read, with nothing gathered or allocated.
  */
 export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World): void {
-  nw = 0;
+  ha = 0x811c9dc5 | 0;
+  hb = 0x9e3779b9 | 0;
   put(chain.hi);
   put(chain.lo);
   putNum(ev.index);
@@ -322,10 +371,8 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
   putNum(c.dropped);
   putNum(w.delivered?.count ?? 0);
   putNum(w.queue.length);
-  const clusters = clusterList;
-  const links = linkList;
-  clusters.length = 0;
-  links.length = 0;
+  nClusters = 0;
+  nLinks = 0;
   for (const id of ev.nodes) {
     const n = w.nodes[id];
     put(hashOf(id));
@@ -342,7 +389,7 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
       putNum(p.born);
       putNum(p.order);
       put(hashOf(p.link));
-      addSortedName(links, p.link);
+      touchLink(p.link);
       for (const k in p.notes) {
         put(hashOf(k));
         putStr(JSON.stringify(p.notes[k]));
@@ -350,7 +397,7 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
       const qs = w.qubits.get(p.qubit);
       if (qs) {
         putNum(qs.decayedTo);
-        addSortedNumber(clusters, qs.cluster);
+        touchCluster(qs.cluster);
       }
     }
     put(n.inbox.length);
@@ -360,7 +407,8 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
     put(snd.id);
     putNum(snd.arrives);
   }
-  for (const cid of clusters) {
+  for (let ci = 0; ci < nClusters; ci++) {
+    const cid = touchedClusters[ci];
     const cl = w.clusters.get(cid);
     if (!cl) continue;
     put(cid);
@@ -369,13 +417,10 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
     const d = cl.rho.data;
     // each number's two 32-bit words, low word first (the order of an Int32Array view)
     put(d.length * 2);
-    for (let i = 0; i < d.length; i++) {
-      f64[0] = d[i];
-      put(u32[0]);
-      put(u32[1]);
-    }
+    putFloats(d);
   }
-  for (const lid of links) {
+  for (let li = 0; li < nLinks; li++) {
+    const lid = touchedLinks[li];
     const l = w.links[lid];
     if (!l) continue;
     put(hashOf(lid));
@@ -391,17 +436,8 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
     putStr(d.id);
     putNum(d.fidelity);
   }
-  // the same mixing as `Hasher.int`, word by word
-  let a = 0x811c9dc5 | 0;
-  let b = 0x9e3779b9 | 0;
-  for (let i = 0; i < nw; i++) {
-    const x = words[i];
-    a = Math.imul(a ^ x, 0x01000193);
-    b = Math.imul(b ^ x, 0x5bd1e995);
-    b ^= b >>> 15;
-  }
-  chain.hi = a >>> 0;
-  chain.lo = b >>> 0;
+  chain.hi = ha >>> 0;
+  chain.lo = hb >>> 0;
 }
 
 function byName(a: number, b: number): number {

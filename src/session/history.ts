@@ -18,7 +18,7 @@ import { DigestChain, type ReplayEvent } from './replay.js';
 export interface HistoryOptions {
   /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
   readonly window?: number;
-  /** Events between keyframes where they are densest (default 256). */
+  /** Events between keyframes where they are densest (default 128). */
   readonly keyframeInterval?: number;
   /** Bytes that records, the window and keyframes may take together (default 256 MiB). */
   readonly budgetBytes?: number;
@@ -26,7 +26,7 @@ export interface HistoryOptions {
   readonly keyframeBytes?: number;
 }
 
-export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 256, budgetBytes: 256 * 1024 * 1024 } as const;
+export const HISTORY_DEFAULTS = { window: 4096, keyframeInterval: 128, budgetBytes: 256 * 1024 * 1024 } as const;
 
 /** Summaries kept for the most recently computed events (older ones are recomputed when asked). */
 const SUMMARIES = 8192;
@@ -55,6 +55,17 @@ function roundness(x: number): number {
   return k;
 }
 
+/**
+ * The window holds every STRIDE-th world (and its first and last); a world between is
+ * recomputed from the held one before it, at most STRIDE − 1 steps, and kept a while among
+ * the RECENT worlds last computed, so a run of single steps back costs under one step each.
+ * Consecutive worlds share most of their structure, but each still has its own small maps
+ * and arrays (about 3 KiB on a 17-site chain): holding a quarter of them is what keeps the
+ * window's memory per event near a twentieth of a deep copy.
+ */
+const STRIDE = 4;
+const RECENT = 16;
+
 interface Keyframe {
   readonly world: World;
   readonly bytes: number;
@@ -77,9 +88,16 @@ export class History {
   /** The most recent events' texts, or the events to read them from (a text is built only when shown). */
   private readonly summaryText: (string | EngineEvent | undefined)[] = new Array(SUMMARIES);
   private readonly summaryAt = new Int32Array(SUMMARIES).fill(-1);
-  /** Worlds lo..lo+seg.length-1 (world n is the world after n events). */
+  /**
+   * Worlds lo..lo+seg.length-1 (world n is the world after n events). The first, the last
+   * and those whose index is a multiple of STRIDE are held; the others may be gaps, read
+   * through `segWorld`.
+   */
   private lo = 0;
-  private seg: World[];
+  private seg: (World | undefined)[];
+  /** The RECENT worlds last recomputed or dropped from the window, by index modulo RECENT. */
+  private readonly recentAt = new Float64Array(RECENT).fill(-1);
+  private readonly recentWorld: (World | undefined)[] = new Array<World | undefined>(RECENT);
   /** The frontier may not be extended past a stall or idle end. */
   private ended = false;
   /** Where the cursor is, for keeping keyframes dense around it. */
@@ -159,7 +177,9 @@ export class History {
 
   /** Estimated bytes held: records, the window and keyframes. */
   get bytes(): number {
-    return this.recordBytes + this.seg.length * this.windowWorldBytes + this.keyframeTotal;
+    // a held world of the window costs about two single events' worth (it is STRIDE events on from the one before)
+    const held = Math.ceil(this.seg.length / STRIDE) + 1 + RECENT;
+    return this.recordBytes + held * 2 * this.windowWorldBytes + this.keyframeTotal;
   }
 
   /** Estimated bytes held by keyframes. */
@@ -240,7 +260,7 @@ export class History {
     this.records.push(ev.time, codeOf(this.nodeIndex.get(ev.node)!, ev.type), this.chain.hi, this.chain.lo);
     // a step keeps its event's text for the panes; a long extension does not (the texts near
     // where it stops are rebuilt when a pane asks, and keeping them would keep the events alive)
-    if (keepText) this.keepSummary(ev.index, ev);
+    if (keepText) this.keepSummary(ev.index, ev.summary);
     this.onNewEvent?.(ev, after);
   }
 
@@ -278,8 +298,9 @@ export class History {
     for (const k of this.keyframes.keys()) if (k <= n && k > best) best = k;
     // the window's worlds are as good as keyframes
     if (n >= this.lo) {
-      const w = Math.min(n, this.lo + this.seg.length - 1);
-      if (w > best) return [w, this.seg[w - this.lo]];
+      let i = Math.min(n, this.lo + this.seg.length - 1) - this.lo;
+      while (this.seg[i] === undefined) i--;
+      if (this.lo + i > best) return [this.lo + i, this.seg[i]!];
     }
     if (n >= this.frontier && this.frontier > best) return [this.frontier, this.frontierWorld];
     return [best, this.keyframes.get(best)!.world];
@@ -341,7 +362,7 @@ export class History {
   worldAt(n: number): World {
     if (n === this.frontier) return this.frontierWorld;
     const i = n - this.lo;
-    if (i >= 0 && i < this.seg.length) return this.seg[i];
+    if (i >= 0 && i < this.seg.length) return this.segWorld(i);
     return this.replayTo(n).world;
   }
 
@@ -374,7 +395,7 @@ export class History {
     if (n === 0) return null;
     if (this.cachedEvent?.n === n) return this.cachedEvent.event;
     const i = n - 1 - this.lo;
-    const event = i >= 0 && i < this.seg.length ? this.engine.step(this.seg[i]).event : this.replayTo(n).event;
+    const event = i >= 0 && i < this.seg.length ? this.engine.step(this.segWorld(i)).event : this.replayTo(n).event;
     this.cachedEvent = { n, event };
     return event;
   }
@@ -385,7 +406,7 @@ export class History {
   place(n: number): World {
     this.focus = n;
     const i = n - this.lo;
-    if (i >= 0 && i < this.seg.length) return this.seg[i];
+    if (i >= 0 && i < this.seg.length) return this.segWorld(i);
     // a keyframe is the world itself; the event that led to it is recomputed only if a pane asks
     const kw = this.keyframes.get(n);
     const r = n === this.frontier ? { world: this.frontierWorld, event: null } : kw ? { world: kw.world, event: null } : this.replayTo(n);
@@ -399,7 +420,7 @@ export class History {
   forward(n: number): World | null {
     this.focus = n + 1;
     const i = n + 1 - this.lo;
-    if (i >= 1 && i < this.seg.length) return this.seg[i];
+    if (i >= 1 && i < this.seg.length) return this.segWorld(i);
     if (n + 1 > this.frontier && this.ended) return null;
     const cur = this.place(n);
     const { world, event } = this.engine.step(cur);
@@ -415,12 +436,24 @@ export class History {
     this.cachedEvent = { n: n + 1, event };
     // the window holds consecutive worlds: keep the part up to the cursor and add the new one
     if (this.seg.length > n + 1 - this.lo) this.seg.length = n + 1 - this.lo;
+    // the world at the cursor stays held only if it is on the stride (or first)
+    const last = this.seg.length - 1;
+    const prev = this.seg[last];
+    if (last > 0 && prev !== undefined && (this.lo + last) % STRIDE !== 0) {
+      this.keepRecent(this.lo + last, prev);
+      this.seg[last] = undefined;
+    }
     this.seg.push(world);
-    // let it grow to twice its size, then drop the older half at once (amortised constant time)
+    this.keepRecent(n + 1, world);
+    // let it grow to twice its size, then drop the older half at once (amortised constant
+    // time), so that the new first world is on the stride, and so held
     if (this.seg.length > 2 * this.window) {
-      const drop = this.seg.length - this.window;
-      this.seg = this.seg.slice(drop);
-      this.lo += drop;
+      let drop = this.seg.length - this.window;
+      drop -= (this.lo + drop) % STRIDE;
+      if (drop > 0) {
+        this.seg = this.seg.slice(drop);
+        this.lo += drop;
+      }
     }
     return world;
   }
@@ -430,18 +463,51 @@ export class History {
     if (n <= 0) return null;
     this.focus = n - 1;
     const i = n - 1 - this.lo;
-    if (i >= 0 && i < this.seg.length) return this.seg[i];
+    if (i >= 0 && i < this.seg.length) return this.segWorld(i);
     // rebuild a window ending at the cursor: one batch to its start, then one step per event
     const span = Math.min(n, Math.max(16, Math.floor(this.window / 4)));
     const start = n - span;
-    const worlds: World[] = [this.replayTo(start, false).world];
-    let w = worlds[0];
-    for (let k = start; k < n; k++) {
+    const worlds: (World | undefined)[] = [this.replayTo(start, false).world];
+    let w = worlds[0]!;
+    for (let k = start + 1; k <= n; k++) {
       w = this.engine.step(w).world;
-      worlds.push(w);
+      // the last few are kept as recent, whatever their index; of the others, the stride
+      this.keepRecent(k, w);
+      worlds.push(k === n || k % STRIDE === 0 ? w : undefined);
     }
     this.lo = start;
     this.seg = worlds;
-    return this.seg[n - 1 - start];
+    return this.segWorld(n - 1 - start);
+  }
+
+  /** World lo+i of the window: held, recent, or recomputed from the held world before it. */
+  private segWorld(i: number): World {
+    const held = this.seg[i];
+    if (held !== undefined) return held;
+    const n = this.lo + i;
+    const r = this.recent(n);
+    if (r !== undefined) return r;
+    let j = i - 1;
+    let w = this.seg[j] ?? this.recent(this.lo + j);
+    while (w === undefined) {
+      j--;
+      w = this.seg[j] ?? this.recent(this.lo + j);
+    }
+    for (let k = j + 1; k <= i; k++) {
+      w = this.engine.step(w).world;
+      this.keepRecent(this.lo + k, w);
+    }
+    return w;
+  }
+
+  private recent(n: number): World | undefined {
+    const slot = n % RECENT;
+    return this.recentAt[slot] === n ? this.recentWorld[slot] : undefined;
+  }
+
+  private keepRecent(n: number, w: World): void {
+    const slot = n % RECENT;
+    this.recentAt[slot] = n;
+    this.recentWorld[slot] = w;
   }
 }

@@ -56,12 +56,13 @@ function roundness(x: number): number {
 }
 
 /**
- * The window holds every STRIDE-th world (and its first and last); a world between is
- * recomputed from the held one before it, at most STRIDE − 1 steps, and kept a while among
- * the RECENT worlds last computed, so a run of single steps back costs under one step each.
- * Consecutive worlds share most of their structure, but each still has its own small maps
- * and arrays (about 3 KiB on a 17-site chain): holding a quarter of them is what keeps the
- * window's memory per event near a twentieth of a deep copy.
+ * As the cursor moves forward, the window holds every STRIDE-th world (and its first); a
+ * world between is recomputed from the held one before it, at most STRIDE − 1 steps, and
+ * kept a while among the RECENT worlds last computed, so a run of single steps back costs
+ * under one step each. Consecutive worlds share most of their structure, but each still has
+ * its own small maps and arrays (about 3 KiB on a 17-site chain): holding a quarter of them
+ * is what keeps the window's memory per event near a twentieth of a deep copy. A stretch
+ * rebuilt for stepping back after a jump is held whole.
  */
 const STRIDE = 4;
 const RECENT = 16;
@@ -467,13 +468,12 @@ export class History {
     // rebuild a window ending at the cursor: one batch to its start, then one step per event
     const span = Math.min(n, Math.max(16, Math.floor(this.window / 4)));
     const start = n - span;
+    // a stretch rebuilt for stepping back is held whole: each of its worlds is about to be shown
     const worlds: (World | undefined)[] = [this.replayTo(start, false).world];
     let w = worlds[0]!;
     for (let k = start + 1; k <= n; k++) {
       w = this.engine.step(w).world;
-      // the last few are kept as recent, whatever their index; of the others, the stride
-      this.keepRecent(k, w);
-      worlds.push(k === n || k % STRIDE === 0 ? w : undefined);
+      worlds.push(w);
     }
     this.lo = start;
     this.seg = worlds;

@@ -106,7 +106,7 @@ export const DEBUG_OPTIONS: readonly OptionSpec[] = [
   { flags: '--replay <R.json>', description: 'open a replay file: its embedded inputs, seed and breakpoints' },
   { flags: '--at <I>', description: 'with --replay: open with the cursor on event I' },
   { flags: '--autoplay <RATE>', description: 'teaching mode: step RATE events per second, narrating each (Space pauses)' },
-  { flags: '--window <N>', description: `worlds kept one per event near the cursor, at least N and at most 2N (default ${HISTORY_DEFAULTS.window})` },
+  { flags: '--window <N>', description: `events near the cursor whose worlds are at hand (every fourth held, the rest a few steps away), at least N and at most 2N (default ${HISTORY_DEFAULTS.window})` },
   { flags: '--history-mb <MB>', description: `memory kept for rewind (records, recent worlds, keyframes); beyond it keyframes far from the cursor are thinned (default ${HISTORY_DEFAULTS.budgetBytes / 1024 / 1024})` },
 ];
 

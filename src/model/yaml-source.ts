@@ -96,6 +96,11 @@ function duplicateAt(node: unknown, offset: number, path: readonly PathPart[]): 
 /** A message for a key written twice in one mapping, when the file kind knows better than "duplicate key". */
 export type DuplicateKeyHook = (doc: Document.Parsed, mapping: Path, key: string) => { message: string; fix: string } | undefined;
 
+/** A YAML problem that belongs to the whole file (shown at its first line). */
+function wholeFileError(file: string, message: string, fix: string): InputErrors {
+  return new InputErrors([new InputError({ code: 'yaml', file, line: 1, col: 1, message, fix })]);
+}
+
 /** A YAML document with its line index and its value as plain data. */
 export class SourceDoc {
   private constructor(
@@ -111,16 +116,11 @@ export class SourceDoc {
   static parse(file: string, text: string, onDuplicate?: DuplicateKeyHook): SourceDoc {
     const marks = countMarks(text, MAX_YAML_MARKS);
     if (marks > MAX_YAML_MARKS) {
-      throw new InputErrors([
-        new InputError({
-          code: 'yaml',
-          file,
-          line: 1,
-          col: 1,
-          message: `the file has more than ${MAX_YAML_MARKS.toLocaleString('en-US')} YAML entries (marks ":", "-", ",", "[" and "{"), more than bellstep loads`,
-          fix: 'check that this is the right file; a network this large is better written with roles, which state shared rules once',
-        }),
-      ]);
+      throw wholeFileError(
+        file,
+        `the file has more than ${MAX_YAML_MARKS.toLocaleString('en-US')} YAML entries (marks ":", "-", ",", "[" and "{"), more than bellstep loads`,
+        'check that this is the right file; a network this large is better written with roles, which state shared rules once',
+      );
     }
     const lines = new LineCounter();
     const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true, version: '1.2' });
@@ -178,16 +178,7 @@ export class SourceDoc {
     try {
       value = doc.toJS({ maxAliasCount: 100 });
     } catch (err) {
-      throw new InputErrors([
-        new InputError({
-          code: 'yaml',
-          file,
-          line: 1,
-          col: 1,
-          message: `YAML: ${err instanceof Error ? err.message : String(err)}`,
-          fix: 'use fewer aliases (*name); write the values out instead',
-        }),
-      ]);
+      throw wholeFileError(file, `YAML: ${err instanceof Error ? err.message : String(err)}`, 'use fewer aliases (*name); write the values out instead');
     }
     return new SourceDoc(file, text, doc, lines, value);
   }

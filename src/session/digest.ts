@@ -46,17 +46,12 @@ class Hasher {
 
   str(s: string): void {
     this.int(s.length);
-    // the same steps as `int` per character, on locals: strings are most of what a digest hashes
-    let a = this.a;
-    let b = this.b;
-    for (let i = 0; i < s.length; i++) {
-      const x = s.charCodeAt(i);
-      a = Math.imul(a ^ x, 0x01000193);
-      b = Math.imul(b ^ x, 0x5bd1e995);
-      b ^= b >>> 15;
-    }
-    this.a = a;
-    this.b = b;
+    // the same steps as `int` per character, in the second digest's loop (strings are most of what a digest hashes)
+    ha = this.a;
+    hb = this.b;
+    mixChars(s);
+    this.a = ha;
+    this.b = hb;
   }
 
   /** The same as `str(prefix + n)` for a one-letter prefix and a whole number n ≥ 0, without building the string. */
@@ -280,8 +275,8 @@ function putWords(v: Int32Array, n: number): void {
   hb = b;
 }
 
-function putStr(str: string): void {
-  put(str.length);
+/** Mixes a string's UTF-16 code units, one word each (the first digest's strings too). */
+function mixChars(str: string): void {
   let a = ha;
   let b = hb;
   for (let i = 0; i < str.length; i++) {
@@ -292,6 +287,11 @@ function putStr(str: string): void {
   }
   ha = a;
   hb = b;
+}
+
+function putStr(str: string): void {
+  put(str.length);
+  mixChars(str);
 }
 
 /** A matrix copied into scratch (one memcpy) and mixed as the 32-bit words of that copy, low word first. */

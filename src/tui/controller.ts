@@ -227,9 +227,17 @@ export class Controller implements CommandTarget {
   }
 
   private finishLong(stop: SessionStop): void {
+    const op = this.op;
     this.op = undefined;
     this.busy = undefined;
     this.guarded(() => this.move(() => stop));
+    // a long one says how long it took, so a person (or a benchmark) need not time it
+    const secs = op ? (performance.now() - op.started) / 1000 : 0;
+    const note = this.note;
+    if (op && secs >= 0.5 && note && note.lines.length > 0) {
+      const took = `(${op.run.progress.done.toLocaleString('en')} events in ${secs.toFixed(2)} s)`;
+      this.note = { ...note, lines: [`${note.lines[0]} ${took}`, ...note.lines.slice(1)] };
+    }
   }
 
   /** Stops the long operation where it has got to (Esc). */

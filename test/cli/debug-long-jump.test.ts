@@ -75,6 +75,8 @@ describe('a long jump in the debugger', () => {
     // the progress it showed changed on the way
     expect(seen.size).toBeGreaterThanOrEqual(2);
     expect(screen()).toMatch(/event #300000 of 300001 computed/);
+    // and it said how long it took, counting the events it ran
+    expect(screen()).toMatch(/went to this event \(300,001 events in \d+\.\d\d s\)/);
 
     // a jump far beyond: Esc stops it where it got to
     tmux('send-keys', '-t', 'jump', ':go 50000000', 'Enter');

@@ -1,7 +1,6 @@
 /** `openSession` for the library and for `bellstep debug`: the stepping session the debugger drives. */
 import { Engine } from '../engine/index.js';
-import type { HistoryOptions } from '../session/history.js';
-import { Session } from '../session/session.js';
+import { Session, type SessionOptions as SessionCoreOptions } from '../session/session.js';
 import { loaded, type Inputs } from './inputs.js';
 import { seedOption } from './options.js';
 
@@ -11,11 +10,8 @@ export interface SessionOptions {
   readonly seed?: number;
 }
 
-/** How the debugger opens a session: also the bounds of its history and the size of a continue's slices. */
-export interface DebugSessionOptions extends HistoryOptions {
-  readonly seed?: number;
-  readonly continueLimit?: number;
-}
+/** How the debugger opens a session: also the bounds of its history, a continue's limit and the clock its slices are timed by. */
+export type DebugSessionOptions = SessionCoreOptions;
 
 /** A session on validated inputs with the debugger's settings. */
 export function openSessionWith(inputs: Inputs, opts: DebugSessionOptions = {}): Session {

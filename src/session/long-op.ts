@@ -27,16 +27,35 @@ export interface OpStop {
 /** Events per chunk to aim for, so one chunk takes about this many milliseconds. */
 const SLICE_MS = 8;
 
-/** Adapts a chunk size to the time its chunks take: aims at SLICE_MS per chunk. */
-export class Pacer {
-  size = 512;
+/**
+ * Milliseconds from some fixed moment. The session reads no clock of its own: a caller that
+ * runs long operations in slices (the debugger) passes one, and only the sizes of chunks and
+ * slices depend on it, never what is computed.
+ */
+export type Clock = () => number;
 
-  /** Records that `events` took `ms`, and resizes the next chunk. */
-  took(events: number, ms: number): void {
-    if (events <= 0) return;
-    const perEvent = Math.max(ms, 0.01) / events;
-    const want = Math.round(SLICE_MS / perEvent);
-    this.size = Math.min(1 << 20, Math.max(16, Math.round((this.size + want) / 2)));
+/** Events per chunk without a clock: nobody waits between chunks, so they can be long. */
+const UNTIMED_CHUNK = 4096;
+
+/** Sizes chunks of work: with a clock, to take about SLICE_MS each; without one, a fixed size. */
+export class Pacer {
+  size: number;
+
+  constructor(private readonly clock?: Clock) {
+    this.size = clock ? 512 : UNTIMED_CHUNK;
+  }
+
+  /** Runs one chunk (`work` is given its size and returns the events it ran) and sizes the next from its time. */
+  chunk(work: (size: number) => number): number {
+    if (!this.clock) return work(this.size);
+    const t0 = this.clock();
+    const events = work(this.size);
+    if (events > 0) {
+      const perEvent = Math.max(this.clock() - t0, 0.01) / events;
+      const want = Math.round(SLICE_MS / perEvent);
+      this.size = Math.min(1 << 20, Math.max(16, Math.round((this.size + want) / 2)));
+    }
+    return events;
   }
 }
 
@@ -49,6 +68,7 @@ export class LongOp<S extends OpStop> {
     private readonly steps: Generator<Progress, S>,
     private readonly stopHere: () => S,
     first: Progress,
+    private readonly clock?: Clock,
   ) {
     this.progress = first;
   }
@@ -58,10 +78,14 @@ export class LongOp<S extends OpStop> {
     return this.result !== undefined;
   }
 
-  /** Runs chunks for about `ms` milliseconds; the stop once it has finished, else undefined. */
+  /**
+   * Runs chunks for about `ms` milliseconds (one chunk when there is no clock); the stop once
+   * it has finished, else undefined.
+   */
   run(ms: number): S | undefined {
     if (this.result) return this.result;
-    const end = performance.now() + ms;
+    const clock = this.clock;
+    const end = clock ? clock() + ms : 0;
     do {
       const r = this.steps.next();
       if (r.done) {
@@ -69,7 +93,7 @@ export class LongOp<S extends OpStop> {
         return r.value;
       }
       this.progress = r.value;
-    } while (performance.now() < end);
+    } while (clock !== undefined && clock() < end);
     return undefined;
   }
 

@@ -12,7 +12,7 @@ import { breakpointScanner, conditionHolds, parseBreakpoint, type Breakpoint, ty
 import { debugScope } from './debug-functions.js';
 import { History, type HistoryOptions } from './history.js';
 import { GENESIS_DIGEST } from './digest.js';
-import { LongOp, Pacer, type Progress } from './long-op.js';
+import { LongOp, Pacer, type Clock, type Progress } from './long-op.js';
 import { replayHead } from './replay.js';
 import { RECENT, ReplayWriter } from './replay-v2.js';
 import { formatDuration } from '../model/units.js';
@@ -44,6 +44,8 @@ export interface SessionOptions extends HistoryOptions {
   readonly seed?: number;
   /** Events a single continue may run before it stops with reason `limit` (default 1,000,000). */
   readonly continueLimit?: number;
+  /** What long operations time their slices by (see long-op.ts); without one, they run in fixed chunks. */
+  readonly clock?: Clock;
 }
 
 /** An explanation plus what the static analysis knows about the rule. */
@@ -68,6 +70,7 @@ export class Session {
   private lastStop: SessionStop = { reason: 'start', detail: 'nothing has happened yet' };
   private readonly findings: readonly Finding[];
   private readonly continueLimit: number;
+  private readonly clock: Clock | undefined;
 
   constructor(
     readonly engine: Engine,
@@ -75,6 +78,7 @@ export class Session {
   ) {
     this.history = new History(engine, opts.seed ?? engine.net.noise.seed, opts);
     this.continueLimit = opts.continueLimit ?? 1_000_000;
+    this.clock = opts.clock;
     this.findings = lint(engine.net.programSet, engine.net.noise);
   }
 
@@ -161,13 +165,11 @@ export class Session {
     // eslint-disable-next-line @typescript-eslint/no-this-alias
     const self = this;
     function* steps(): Generator<Progress, SessionStop> {
-      const pace = new Pacer();
+      const pace = new Pacer(self.clock);
       // keyframes are kept densest where the cursor is going
       self.history.setFocus(target);
       while (self.history.frontier < target && !self.history.atEnd) {
-        const t0 = performance.now();
-        const ran = self.history.extend(Math.min(pace.size, target - self.history.frontier));
-        pace.took(ran, performance.now() - t0);
+        const ran = pace.chunk((size) => self.history.extend(Math.min(size, target - self.history.frontier)));
         if (ran === 0) break;
         yield progress();
       }
@@ -178,7 +180,7 @@ export class Session {
       self.lastStop = to < target ? { reason: self.ending() ?? 'idle', detail: `the run ends after ${plural(to, 'event')}` } : { reason: 'event', detail: 'went to this event' };
       return self.lastStop;
     }
-    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress());
+    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress(), this.clock);
   }
 
   /** A go to simulated time t in slices. */
@@ -190,14 +192,12 @@ export class Session {
     // eslint-disable-next-line @typescript-eslint/no-this-alias
     const self = this;
     function* steps(): Generator<Progress, SessionStop> {
-      const pace = new Pacer();
+      const pace = new Pacer(self.clock);
       const h = self.history;
       while (!h.atEnd && (h.frontier === 0 || h.timeOf(h.frontier - 1) <= t)) {
         h.setFocus(h.frontier);
-        const t0 = performance.now();
         let halted = false;
-        const ran = h.extend(pace.size, undefined, (next) => (next > t ? (halted = true) : false));
-        pace.took(ran, performance.now() - t0);
+        const ran = pace.chunk((size) => h.extend(size, undefined, (next) => (next > t ? (halted = true) : false)));
         if (halted || ran === 0) break;
         yield progress();
       }
@@ -208,7 +208,7 @@ export class Session {
       self.lastStop = { reason: 'time', detail: `at the last event up to the time asked for (${plural(to, 'event')})` };
       return self.lastStop;
     }
-    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress());
+    return new LongOp(steps(), () => this.stopAtFrontierOr(from, 'stopped on the way'), progress(), this.clock);
   }
 
   /**
@@ -276,24 +276,23 @@ export class Session {
     // eslint-disable-next-line @typescript-eslint/no-this-alias
     const self = this;
     function* steps(): Generator<Progress, SessionStop> {
-      const pace = new Pacer();
+      const pace = new Pacer(self.clock);
       // events already computed: re-run them from the cursor, chunk by chunk
       let w = self.world();
       while (!hit && at < self.history.frontier) {
-        const t0 = performance.now();
-        const r = self.engine.advance(w, Math.min(pace.size, self.history.frontier - at), { after: onEvent }, { keep: 'none', detail: false });
-        pace.took(r.count, performance.now() - t0);
-        w = r.world;
-        at += r.count;
+        const ran = pace.chunk((size) => {
+          const r = self.engine.advance(w, Math.min(size, self.history.frontier - at), { after: onEvent }, { keep: 'none', detail: false });
+          w = r.world;
+          return r.count;
+        });
+        at += ran;
         time = w.time;
-        if (r.count === 0) break;
+        if (ran === 0) break;
         if (!hit) yield progress();
       }
       while (!hit && at >= self.history.frontier && !self.history.atEnd && at - start < self.continueLimit) {
         self.history.setFocus(at);
-        const t0 = performance.now();
-        const ran = self.history.extend(Math.min(pace.size, self.continueLimit - (at - start)), onEvent);
-        pace.took(ran, performance.now() - t0);
+        const ran = pace.chunk((size) => self.history.extend(Math.min(size, self.continueLimit - (at - start)), onEvent));
         at = self.history.frontier;
         time = self.history.frontierTime;
         if (ran === 0) break;
@@ -301,7 +300,7 @@ export class Session {
       }
       return self.endContinue(hit, at, active);
     }
-    return new LongOp(steps(), () => this.endContinue(undefined, at, active, true), progress());
+    return new LongOp(steps(), () => this.endContinue(undefined, at, active, true), progress(), this.clock);
   }
 
   private endContinue(hit: (Hit & { at: number }) | undefined, at: number, active: readonly Breakpoint[], cancelled = false): SessionStop {
@@ -377,7 +376,7 @@ export class Session {
     return new LongOp(steps(), () => {
       this.lastStop = { reason: 'cancelled', detail: `search stopped; no hit between event ${Math.max(0, hiAt - 1)} and the cursor` };
       return this.lastStop;
-    }, progress());
+    }, progress(), this.clock);
   }
 
   // ------------------------------------------------------------------ watches

@@ -1,4 +1,8 @@
-/** The engine is a pure function of its inputs: no clocks, no ambient randomness, no I/O. */
+/**
+ * The engine is a pure function of its inputs: no clocks, no ambient randomness, no I/O. The
+ * session over it (history, replays, long operations) reads no clock or ambient randomness
+ * either: a caller that times slices passes its own clock (long-op.ts).
+ */
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -26,4 +30,17 @@ describe('engine and kernel purity', () => {
       expect(offenders).toEqual([]);
     });
   }
+});
+
+describe('session purity', () => {
+  const files = sources('src/session');
+
+  it('finds the sources it checks', () => {
+    expect(files.length).toBeGreaterThan(10);
+  });
+
+  it('never reads a clock or Math.random', () => {
+    const offenders = files.filter((f) => /Math\.random|Date\.now|new Date\(|performance\.now|process\.hrtime/.test(f.text)).map((f) => f.file);
+    expect(offenders).toEqual([]);
+  });
 });

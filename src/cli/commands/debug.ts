@@ -71,7 +71,8 @@ export function saveWriter(io: CliIo, inputs: readonly (string | undefined)[]): 
 
 /** Opens the debugger on validated inputs once both streams are terminals; returns the exit code. */
 export async function openDebugger(io: CliIo, inputs: Inputs, opts: OpenOptions): Promise<number> {
-  const session = openSessionWith(inputs, { ...opts.history, seed: opts.seed });
+  // long operations run in slices of a few milliseconds between keys: the session is given the clock to time them
+  const session = openSessionWith(inputs, { ...opts.history, seed: opts.seed, clock: () => performance.now() });
   for (const b of opts.breaks) session.addBreakpoint(b);
   if (!io.stdinIsTTY || !io.stdoutIsTTY) {
     io.stderr(

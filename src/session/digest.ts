@@ -316,29 +316,21 @@ export interface DigestHalves {
 /**
  * The clusters and links an event touched, kept in ascending order as they are found (the
  * lists are a few items long), with their own counts: no array is resized on the hot path.
+ * Links are in code-unit order, as `Array.prototype.sort` orders strings.
  */
 const touchedClusters: number[] = [];
 const touchedLinks: string[] = [];
 let nClusters = 0;
 let nLinks = 0;
 
-function touchCluster(x: number): void {
-  let i = nClusters;
-  while (i > 0 && touchedClusters[i - 1] > x) i--;
-  if (i > 0 && touchedClusters[i - 1] === x) return;
-  for (let j = nClusters; j > i; j--) touchedClusters[j] = touchedClusters[j - 1];
-  touchedClusters[i] = x;
-  nClusters++;
-}
-
-/** Links in code-unit order (as `Array.prototype.sort` orders strings). */
-function touchLink(x: string): void {
-  let i = nLinks;
-  while (i > 0 && touchedLinks[i - 1] > x) i--;
-  if (i > 0 && touchedLinks[i - 1] === x) return;
-  for (let j = nLinks; j > i; j--) touchedLinks[j] = touchedLinks[j - 1];
-  touchedLinks[i] = x;
-  nLinks++;
+/** Inserts x into list[0..n) in order unless it is there; returns the new count. */
+function insertSorted<T extends number | string>(list: T[], n: number, x: T): number {
+  let i = n;
+  while (i > 0 && list[i - 1] > x) i--;
+  if (i > 0 && list[i - 1] === x) return n;
+  for (let j = n; j > i; j--) list[j] = list[j - 1];
+  list[i] = x;
+  return n + 1;
 }
 
 /**
@@ -389,7 +381,7 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
       putNum(p.born);
       putNum(p.order);
       put(hashOf(p.link));
-      touchLink(p.link);
+      nLinks = insertSorted(touchedLinks, nLinks, p.link);
       for (const k in p.notes) {
         put(hashOf(k));
         putStr(JSON.stringify(p.notes[k]));
@@ -397,7 +389,7 @@ export function eventDigestInto2(chain: DigestHalves, ev: EngineEvent, w: World)
       const qs = w.qubits.get(p.qubit);
       if (qs) {
         putNum(qs.decayedTo);
-        touchCluster(qs.cluster);
+        nClusters = insertSorted(touchedClusters, nClusters, qs.cluster);
       }
     }
     put(n.inbox.length);

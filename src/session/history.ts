@@ -16,7 +16,7 @@ import { codeOf, EventColumns, KINDS } from './replay-columns.js';
 import { DigestChain, type ReplayEvent } from './replay.js';
 
 export interface HistoryOptions {
-  /** Worlds kept one per event around the cursor: at least this many, at most twice (default 4096). */
+  /** Events around the cursor whose worlds are at hand (see STRIDE): at least this many, at most twice (default 4096). */
   readonly window?: number;
   /** Events between keyframes where they are densest (default 128). */
   readonly keyframeInterval?: number;
@@ -86,13 +86,13 @@ export class History {
   private frontierWorld: World;
   private readonly chain = new DigestChain();
   private readonly nodeIndex = new Map<string, number>();
-  /** The most recent events' texts, or the events to read them from (a text is built only when shown). */
-  private readonly summaryText: (string | EngineEvent | undefined)[] = new Array(SUMMARIES);
+  /** The texts of the events stepped through or shown last (older ones are rebuilt around an index when asked). */
+  private readonly summaryText: (string | undefined)[] = new Array<string | undefined>(SUMMARIES);
   private readonly summaryAt = new Int32Array(SUMMARIES).fill(-1);
   /**
-   * Worlds lo..lo+seg.length-1 (world n is the world after n events). The first, the last
-   * and those whose index is a multiple of STRIDE are held; the others may be gaps, read
-   * through `segWorld`.
+   * Worlds lo..lo+seg.length-1 (world n is the world after n events). The first and those
+   * whose index is a multiple of STRIDE are always held; others may be gaps, read through
+   * `segWorld`.
    */
   private lo = 0;
   private seg: (World | undefined)[];
@@ -214,7 +214,7 @@ export class History {
   /** The one-line summary of event i. */
   summary(i: number): string {
     const slot = i % SUMMARIES;
-    if (this.summaryAt[slot] === i) return this.textAt(slot);
+    if (this.summaryAt[slot] === i) return this.summaryText[slot]!;
     // recompute the neighbourhood at once: panes ask for runs of lines
     const from = Math.max(0, i - 64);
     const to = Math.min(this.frontier, i + 64);
@@ -227,18 +227,10 @@ export class History {
         return false;
       },
     }, { keep: 'none', detail: false });
-    return this.summaryAt[slot] === i ? this.textAt(slot) : '';
+    return this.summaryAt[slot] === i ? this.summaryText[slot]! : '';
   }
 
-  private textAt(slot: number): string {
-    const t = this.summaryText[slot]!;
-    if (typeof t === 'string') return t;
-    const text = t.summary;
-    this.summaryText[slot] = text;
-    return text;
-  }
-
-  private keepSummary(i: number, text: string | EngineEvent): void {
+  private keepSummary(i: number, text: string): void {
     const slot = i % SUMMARIES;
     this.summaryAt[slot] = i;
     this.summaryText[slot] = text;
